@@ -4,7 +4,7 @@
  * message (one field of it, for GRIB2 messages with repeated sections) into a GribFieldInfo
  * without unpacking data, and unpacks values on demand.
  */
-import type { CalendarDate, EarthShape } from '../../grid/types.js';
+import type { CalendarDate, EarthShape, Quantity, RhConvention } from '../../grid/types.js';
 
 /** Where a message sits in its file, found by the scan. */
 export interface GribMessageLocation {
@@ -147,4 +147,15 @@ export interface GribFieldInfo {
   readonly hasBitmap: boolean;
   /** Unpacks the field: numberOfPoints values in the message's scanning order, NaN where missing. */
   decode(): Float64Array;
+}
+
+/** What a parameter table says about a parameter (tables are data: see tables/). */
+export interface GribParameterDescription {
+  readonly shortName: string;
+  readonly name: string;
+  /** Units as the table gives them ("K", "kg kg**-1", "%", "m**2 s**-2", "gpm"). */
+  readonly units: string;
+  readonly quantity?: Quantity;
+  /** For relative humidity: the phase convention the parameter implies, when it implies one. */
+  readonly rhConvention?: RhConvention;
 }
