@@ -1,0 +1,360 @@
+/**
+ * CCSDS 121.0-B-3 adaptive entropy decoder (the "Rice" coder of GRIB2 template 5.42).
+ *
+ * The coded stream is a sequence of coded data sets, one per block of J samples. Each starts with
+ * an option identifier (ID, Table 5-1) that selects how the block is coded:
+ *   - ID 0, then 1 bit: 0 → zero-block option (§5.1.3.3), 1 → second-extension option (§5.1.3.4)
+ *   - ID 1: fundamental sequence (split sample with k = 0)
+ *   - ID k+1: split-sample option with k least significant bits sent raw (§5.1.3.1)
+ *   - ID all ones: no compression (§5.1.3.5)
+ * With preprocessing, the first block of every reference sample interval (RSI) carries an n-bit
+ * reference sample after the ID (and after the low-entropy selector bit); that block codes J − 1
+ * mapped prediction errors.
+ *
+ * The decoder reads the bit stream MSB first through a left-aligned 32-bit window, refilled
+ * byte by byte. The input is copied into a zero-padded buffer so no read leaves it; overruns
+ * are detected from the number of bits consumed and reported as truncation.
+ */
+import { DecodeError } from '../../errors.js';
+import { aecLayout, type AecParameters } from './params.js';
+import { signExtend, unmapSigned, unmapUnsigned } from './postprocess.js';
+
+/** Zero-block count code meaning "remainder of segment" (§5.1.3.3): fundamental sequence value 4. */
+const ROS = 5;
+/** Zero blocks are counted within segments of 64 blocks. */
+const SEGMENT_BLOCKS = 64;
+/** Bytes of zero padding after the input; more than one block can read between checks. */
+const PAD = 1024;
+
+/** Second extension: γ = β(β+1)/2 + δ₂ with β = δ₁ + δ₂. Tables of β and β(β+1)/2 by γ. */
+const SE_TABLE = 91; // γ ≤ 90 ⇔ β ≤ 12
+const SE_BETA = new Uint8Array(SE_TABLE);
+const SE_BASE = new Uint8Array(SE_TABLE);
+for (let beta = 0, m = 0; beta <= 12; beta++) {
+  for (let j = 0; j <= beta; j++, m++) {
+    SE_BETA[m] = beta;
+    SE_BASE[m] = (beta * (beta + 1)) / 2;
+  }
+}
+
+/** How many blocks used each coding option (filled by `aecDecode` when passed). */
+export interface AecOptionCounts {
+  /** Zero-block option codes (each covers one or more blocks). */
+  zeroBlockCodes: number;
+  /** Zero-block codes that used "remainder of segment" (ROS). */
+  remainderOfSegment: number;
+  /** Blocks covered by zero-block codes. */
+  zeroBlocks: number;
+  secondExtension: number;
+  /** Split-sample blocks by k; index 0 is the fundamental sequence option. */
+  splitSample: number[];
+  noCompression: number;
+  /** Blocks that carried a reference sample. */
+  referenceSamples: number;
+}
+
+/** A fresh, all-zero `AecOptionCounts`. */
+export function emptyAecOptionCounts(): AecOptionCounts {
+  return {
+    zeroBlockCodes: 0,
+    remainderOfSegment: 0,
+    zeroBlocks: 0,
+    secondExtension: 0,
+    splitSample: new Array<number>(30).fill(0),
+    noCompression: 0,
+    referenceSamples: 0,
+  };
+}
+
+function malformed(what: string, block: number, bitOffset: number): DecodeError {
+  return new DecodeError(`CCSDS stream: ${what} in block ${block} (bit offset ${bitOffset})`, {
+    offset: Math.floor(bitOffset / 8),
+  });
+}
+
+/**
+ * Decodes `sampleCount` samples of a CCSDS 121.0-B adaptive entropy coded stream.
+ *
+ * @returns unsigned samples; with AEC_DATA_SIGNED the n-bit values are sign-extended to 32 bits
+ *   (view the result's buffer as an Int32Array). The AEC_DATA_MSB and AEC_DATA_3BYTE flags only
+ *   describe how libaec lays samples out in bytes and do not change the decoded values.
+ * @throws RangeError for parameters outside the standard; DecodeError (with the byte offset)
+ *   for a stream that is truncated or codes an impossible value.
+ * @param counts when given, incremented with the coding options the stream used.
+ */
+export function aecDecode(
+  input: Uint8Array,
+  params: AecParameters,
+  sampleCount: number,
+  counts?: AecOptionCounts,
+): Uint32Array {
+  const layout = aecLayout(params);
+  if (!Number.isInteger(sampleCount) || sampleCount < 0) {
+    throw new RangeError(`CCSDS sample count ${sampleCount} is not a non-negative integer`);
+  }
+  if (sampleCount === 0) return new Uint32Array(0);
+  const { bitsPerSample: n, blockSize: J, rsi, idLength, preprocess, padRsi } = layout;
+  const totalBlocks = Math.ceil(sampleCount / J);
+  const len = input.length;
+  // Fewest bits a coded data set can take: ID + selector + a one-bit count, and one zero-block
+  // code covers at most a 64-block segment.
+  const maxBlocks = (Math.floor((len * 8) / (idLength + 2)) + 1) * SEGMENT_BLOCKS;
+  if (totalBlocks > maxBlocks) {
+    throw new DecodeError(`CCSDS stream of ${len} bytes cannot hold ${sampleCount} samples`, { offset: 0 });
+  }
+
+  const idMax = (1 << idLength) - 1;
+  const idShift = 32 - idLength;
+  const maxValue = n === 32 ? 0xffffffff : 2 ** n - 1;
+  const lenBits = len * 8;
+  const out = new Uint32Array(totalBlocks * J);
+  const buf = new Uint8Array(len + PAD);
+  buf.set(input);
+
+  let pos = 0; // next byte of buf to load
+  let acc = 0; // window: `held` valid bits, left-aligned, lower bits zero
+  let held = 0;
+  let block = 0;
+
+  while (block < totalBlocks) {
+    let inInterval = 0; // blocks already decoded in this RSI
+    while (inInterval < rsi && block < totalBlocks) {
+      const blockStart = block * J;
+      const blockEnd = blockStart + J;
+      let i = blockStart;
+      const ref = preprocess && inInterval === 0;
+
+      while (held <= 23) {
+        acc |= buf[pos++] << (24 - held);
+        held += 8;
+      }
+      const id = acc >>> idShift;
+      acc <<= idLength;
+      held -= idLength;
+
+      let lowEntropySecondExtension = false;
+      if (id === 0) {
+        lowEntropySecondExtension = acc < 0; // selector bit: 1 → second extension
+        acc <<= 1;
+        held -= 1;
+      }
+      if (counts !== undefined) {
+        if (ref) counts.referenceSamples++;
+        if (id === 0) {
+          if (lowEntropySecondExtension) counts.secondExtension++;
+          else counts.zeroBlockCodes++;
+        } else if (id === idMax) counts.noCompression++;
+        else counts.splitSample[id - 1]++;
+      }
+      if (ref) {
+        // n-bit reference sample
+        if (n <= 24) {
+          while (held <= 23) {
+            acc |= buf[pos++] << (24 - held);
+            held += 8;
+          }
+          out[i++] = acc >>> (32 - n);
+          acc <<= n;
+          held -= n;
+        } else {
+          while (held <= 23) {
+            acc |= buf[pos++] << (24 - held);
+            held += 8;
+          }
+          const hi = acc >>> (48 - n);
+          acc <<= n - 16;
+          held -= n - 16;
+          while (held <= 23) {
+            acc |= buf[pos++] << (24 - held);
+            held += 8;
+          }
+          out[i++] = hi * 65536 + (acc >>> 16);
+          acc <<= 16;
+          held -= 16;
+        }
+      }
+
+      if (id === 0 && !lowEntropySecondExtension) {
+        // Zero-block option: fundamental-sequence count of all-zero blocks.
+        let fs = 0;
+        for (;;) {
+          while (held <= 23) {
+            acc |= buf[pos++] << (24 - held);
+            held += 8;
+          }
+          if (acc !== 0) break;
+          fs += held;
+          held = 0;
+          if (pos > len || fs > SEGMENT_BLOCKS) throw malformed('zero-block count runs past the end', block, lenBits);
+        }
+        const z = Math.clz32(acc);
+        fs += z;
+        acc <<= z + 1;
+        held -= z + 1;
+        let zeroBlocks = fs + 1;
+        if (zeroBlocks === ROS) {
+          if (counts !== undefined) counts.remainderOfSegment++;
+          zeroBlocks = Math.min(rsi - inInterval, SEGMENT_BLOCKS - (inInterval % SEGMENT_BLOCKS));
+        } else if (zeroBlocks > ROS) {
+          zeroBlocks -= 1;
+        }
+        if (zeroBlocks > SEGMENT_BLOCKS || zeroBlocks > rsi - inInterval) {
+          throw malformed(
+            `zero-block run of ${zeroBlocks} blocks exceeds the ${rsi - inInterval} left in the reference sample interval`,
+            block,
+            pos * 8 - held,
+          );
+        }
+        // `out` is zero-initialised: the run needs no writes.
+        if (counts !== undefined) counts.zeroBlocks += zeroBlocks;
+        inInterval += zeroBlocks;
+        block += zeroBlocks;
+      } else {
+        if (id === 0) {
+          // Second extension: one fundamental-sequence codeword γ per pair of samples. With a
+          // reference sample the first pair's first member is the reference position.
+          while (i < blockEnd) {
+            let m = 0;
+            for (;;) {
+              while (held <= 23) {
+                acc |= buf[pos++] << (24 - held);
+                held += 8;
+              }
+              if (acc !== 0) break;
+              m += held;
+              held = 0;
+              if (pos > len) throw malformed('second-extension codeword runs past the end', block, lenBits);
+            }
+            const z = Math.clz32(acc);
+            m += z;
+            acc <<= z + 1;
+            held -= z + 1;
+            let beta: number;
+            let base: number;
+            if (m < SE_TABLE) {
+              beta = SE_BETA[m];
+              base = SE_BASE[m];
+            } else {
+              beta = Math.floor((Math.sqrt(8 * m + 1) - 1) / 2);
+              while ((beta * (beta + 1)) / 2 > m) beta--;
+              while (((beta + 1) * (beta + 2)) / 2 <= m) beta++;
+              base = (beta * (beta + 1)) / 2;
+              if (beta > maxValue) throw malformed(`second-extension codeword ${m} is out of range`, block, pos * 8 - held);
+            }
+            const second = m - base;
+            if (((i - blockStart) & 1) === 0) out[i++] = beta - second;
+            out[i++] = second;
+          }
+        } else if (id === idMax) {
+          // No compression: n-bit samples.
+          if (n <= 24) {
+            const shift = 32 - n;
+            for (; i < blockEnd; i++) {
+              while (held <= 23) {
+                acc |= buf[pos++] << (24 - held);
+                held += 8;
+              }
+              out[i] = acc >>> shift;
+              acc <<= n;
+              held -= n;
+            }
+          } else {
+            for (; i < blockEnd; i++) {
+              while (held <= 23) {
+                acc |= buf[pos++] << (24 - held);
+                held += 8;
+              }
+              const hi = acc >>> (48 - n);
+              acc <<= n - 16;
+              held -= n - 16;
+              while (held <= 23) {
+                acc |= buf[pos++] << (24 - held);
+                held += 8;
+              }
+              out[i] = hi * 65536 + (acc >>> 16);
+              acc <<= 16;
+              held -= 16;
+            }
+          }
+        } else {
+          // Split sample with k = ID − 1: J fundamental-sequence codes of the high parts, then
+          // J k-bit low parts.
+          const k = id - 1;
+          const fsMax = maxValue >>> k;
+          const first = i;
+          for (; i < blockEnd; i++) {
+            let fs = 0;
+            for (;;) {
+              while (held <= 23) {
+                acc |= buf[pos++] << (24 - held);
+                held += 8;
+              }
+              if (acc !== 0) break;
+              fs += held;
+              held = 0;
+              if (pos > len || fs > fsMax) throw malformed('fundamental-sequence code runs past the end', block, pos * 8);
+            }
+            const z = Math.clz32(acc);
+            fs += z;
+            acc <<= z + 1;
+            held -= z + 1;
+            if (fs > fsMax) {
+              throw malformed(`split-sample high part ${fs} (k = ${k}) exceeds ${n} bits`, block, pos * 8 - held);
+            }
+            out[i] = fs;
+          }
+          if (k > 0) {
+            if (k <= 24) {
+              const shift = 32 - k;
+              for (let j = first; j < blockEnd; j++) {
+                while (held <= 23) {
+                  acc |= buf[pos++] << (24 - held);
+                  held += 8;
+                }
+                out[j] = (out[j] << k) | (acc >>> shift);
+                acc <<= k;
+                held -= k;
+              }
+            } else {
+              const scale = 2 ** k;
+              for (let j = first; j < blockEnd; j++) {
+                while (held <= 23) {
+                  acc |= buf[pos++] << (24 - held);
+                  held += 8;
+                }
+                const hi = acc >>> (48 - k);
+                acc <<= k - 16;
+                held -= k - 16;
+                while (held <= 23) {
+                  acc |= buf[pos++] << (24 - held);
+                  held += 8;
+                }
+                out[j] = out[j] * scale + hi * 65536 + (acc >>> 16);
+                acc <<= 16;
+                held -= 16;
+              }
+            }
+          }
+        }
+        inInterval += 1;
+        block += 1;
+      }
+      if (pos * 8 - held > lenBits) {
+        throw malformed(`stream ends before sample ${Math.min(block * J, sampleCount)} of ${sampleCount}`, block - 1, lenBits);
+      }
+    }
+    if (padRsi) {
+      const drop = held & 7;
+      acc <<= drop;
+      held -= drop;
+    }
+  }
+
+  if (preprocess) {
+    if (layout.signed) unmapSigned(out, out.length, n, rsi * J);
+    else unmapUnsigned(out, out.length, n, rsi * J);
+  } else if (layout.signed) {
+    signExtend(out, out.length, n);
+  }
+  return out.length === sampleCount ? out : out.slice(0, sampleCount);
+}
