@@ -1,0 +1,7 @@
+/**
+ * Output layer: GeoTIFF / cloud-optimized GeoTIFF writing, raster layout of grids and PNG
+ * quicklook maps.
+ */
+export type { RasterDtype, RasterProfile, RasterMetadata, EncodeOptions, WrittenRaster } from './geotiff/index.js';
+export { DEFAULT_PROFILE, encodeGeoTiff, writeGeoTiff, overviewLevels } from './geotiff/index.js';
+export { rasterLayout, type RasterLayout, type RasterLayoutOptions } from './rasterLayout.js';
