@@ -1,0 +1,34 @@
+/**
+ * GRIB edition 1 simple packing (grid point data, section 4 flags 0x00):
+ *   Y = (R + X·2^E) / 10^D
+ * with X the unsigned integers of `bitsPerValue` bits from octet 12, R the reference value, E the
+ * binary scale factor (section 4) and D the decimal scale factor (section 1)
+ * (FM 92 GRIB edition 1, section 4, note on the representation of data). 0 bits per value is a
+ * constant field Y = R / 10^D. Evaluated as (X·2^E + R)·10^−D, the order ecCodes uses.
+ */
+import { unpackUnsigned } from '../../../codecs/bits.js';
+import type { MessageContext } from './context.js';
+import type { Section4 } from './section4.js';
+
+/** Decodes `count` packed values into `out[0..count)`. */
+export function decodeSimple(bds: Section4, decimalScale: number, count: number, out: Float64Array, ctx: MessageContext): void {
+  const bits = bds.octet11;
+  const s = 2 ** bds.binaryScale;
+  const d = 10 ** -decimalScale;
+  const r = bds.referenceValue;
+  if (bits === 0) {
+    out.fill(r * d, 0, count);
+    return;
+  }
+  if (bits > 32) throw ctx.decode(bds.offset + 10, `${bits} bits per value is more than 32`, 'bitsPerValue');
+  const available = (bds.length - 11) * 8 - bds.unusedBits;
+  const needed = count * bits;
+  if (needed > available) {
+    throw ctx.decode(bds.offset, `section 4 holds ${Math.max(0, Math.floor(available / bits))} values of ${bits} bits, ${count} are needed`);
+  }
+  if (available - needed >= Math.max(bits, 16)) {
+    throw ctx.decode(bds.offset, `section 4 holds ${Math.floor(available / bits)} values of ${bits} bits, but ${count} are expected`);
+  }
+  unpackUnsigned(bds.bytes, 11 * 8, bits, count, out);
+  for (let i = 0; i < count; i++) out[i] = (out[i] * s + r) * d;
+}
