@@ -134,8 +134,16 @@ export function flightLevelFromPressure(pPa: number): number {
 
 /** Array form of {@link flightLevelFromPressure}; returns the number of out-of-range cells (NaN written). */
 export function flightLevelFromPressureArray(out: FloatArray, pPa: FloatArray): number {
-  const bad = isaAltitudeFromPressureArray(out, pPa);
-  for (let i = 0; i < out.length; i++) out[i] = out[i] / (100 * FOOT);
+  checkLengths(out.length, pPa.length);
+  let bad = 0;
+  for (let i = 0; i < pPa.length; i++) {
+    const p = pPa[i];
+    if (p >= ISA_PRESSURE_MIN_PA && p <= ISA_PRESSURE_MAX_PA) out[i] = altitudeUnchecked(p) / (100 * FOOT);
+    else {
+      out[i] = NaN;
+      if (p === p) bad++;
+    }
+  }
   return bad;
 }
 
