@@ -1,7 +1,27 @@
 /**
  * frostgrid public API. Re-exports by name; package.json#exports blocks deep imports.
- * (Maintained by the integrator: each layer has its own index under lib/<layer>/.)
+ * Layers: grid model and formats (open), physics, products, output, jobs (what the command runs).
  */
 export * from './errors.js';
 export type * from './grid/types.js';
 export { WGS84 } from './grid/types.js';
+export type { OpenOptions, FormatDriver } from './formats/registry.js';
+export { open, openRaw, DRIVERS } from './open.js';
+export { VERSION } from './version.js';
+
+// Physics: pure kernels over typed arrays, SI units.
+export * from './physics/index.js';
+
+// Products: per-level masks and statistics, columns, areas, summaries.
+export * from './products/index.js';
+
+// Output: GeoTIFF / COG writer, raster layout, quicklooks.
+export * from './output/index.js';
+
+// Jobs: what the command line runs, usable from notebooks too.
+export { describeDataset, describeField, describeGrid, describeCrs, timeLabel } from './jobs/describe.js';
+export type { DatasetDescription, VariableDescription, GridDescription } from './jobs/describe.js';
+export { probe, fieldByName, nodeLocator, parseIsoTime, toRotated, fromRotated } from './jobs/probe.js';
+export type { ProbePoint, ProbeRow, ProbeRequest } from './jobs/probe.js';
+export { runMaskJob, selectLevels, selectTimes, timeFolderName, compactTime, OUTPUT_FILES } from './jobs/masks.js';
+export type { MaskJobOptions, MaskJobResult, LevelSelection } from './jobs/masks.js';

@@ -1,0 +1,410 @@
+/**
+ * The main job: open a file, evaluate every selected (time, pressure level) slice with the
+ * products layer, and write per valid time the level GeoTIFFs, the column GeoTIFF and the summary
+ * (JSON and CSV) into DIR/<input name>/<valid time>/.
+ *
+ * Streaming: one (time, level) slice of temperature and humidity is in memory at a time, plus the
+ * compressed output bands. Each time folder is built under a temporary name beside its target and
+ * renamed into place when complete, so the output folder is never half-written; a rerun replaces
+ * it.
+ */
+import { mkdir, rename, rm, writeFile } from 'node:fs/promises';
+import { basename, extname, join } from 'node:path';
+import { randomBytes } from 'node:crypto';
+import { MissingQuantityError, OutputError, ParameterError } from '../errors.js';
+import type { Field, GridDataset, HorizontalGrid, RhConvention, TimeCoordinate, WarningSink } from '../grid/types.js';
+import { open } from '../open.js';
+import type { CriterionParameters } from '../physics/index.js';
+import { flightLevelFromPressure, prepareLevel, validateCriterionParameters } from '../physics/index.js';
+import {
+  COLUMN_BANDS,
+  ColumnAccumulator,
+  LevelWorkspace,
+  SummaryBuilder,
+  cellWeights,
+  evaluateFieldLevel,
+  heightProviderFor,
+  humidityRecord,
+  levelIndexOf,
+  selectHumidity,
+  selectTemperature,
+  summaryParameters,
+  summaryToCsv,
+  timeIndexOf,
+  type BoundingBox,
+  type Summary,
+} from '../products/index.js';
+import { rasterLayout, writeGeoTiff, writeQuicklook, type RasterLayout, type RasterMetadata } from '../output/index.js';
+import { VERSION } from '../version.js';
+import { parseIsoTime } from './probe.js';
+
+/** Pressure levels to evaluate, in hPa: single values and inclusive ranges. */
+export interface LevelSelection {
+  readonly values: readonly number[];
+  readonly ranges: readonly (readonly [number, number])[];
+}
+
+export interface MaskJobOptions {
+  readonly input: string;
+  readonly outDir: string;
+  readonly levels?: LevelSelection;
+  /** Valid times (ISO 8601) to evaluate; all when empty. */
+  readonly times?: readonly string[];
+  readonly criterion: CriterionParameters;
+  readonly bbox?: BoundingBox;
+  readonly quicklook?: boolean;
+  readonly keepLongitude0To360?: boolean;
+  readonly rhConvention?: RhConvention;
+  readonly temperatureVariable?: string;
+  readonly humidityVariable?: string;
+  /** Called after each (time, level) slice. */
+  readonly progress?: (done: number, total: number, label: string) => void;
+  readonly warn?: WarningSink;
+}
+
+export interface MaskJobResult {
+  /** One folder per evaluated time coordinate. */
+  readonly folders: readonly string[];
+  readonly summaries: readonly Summary[];
+  /** Decoding and method notes the user should see. */
+  readonly notes: readonly string[];
+}
+
+/** File names of the outputs: a contract other tools rely on. */
+export const OUTPUT_FILES = {
+  rhi: 'rhi.tif',
+  iceSupersaturated: 'ice-supersaturated.tif',
+  contrailForming: 'contrail-forming.tif',
+  persistentContrail: 'persistent-contrail.tif',
+  formationMargin: 'formation-margin.tif',
+  column: 'column.tif',
+  summaryJson: 'summary.json',
+  summaryCsv: 'summary.csv',
+  quicklookDir: 'quicklook',
+} as const;
+
+const MASK_NODATA = 255;
+
+export async function runMaskJob(options: MaskJobOptions): Promise<MaskJobResult> {
+  validateCriterionParameters(options.criterion);
+  const ds = await open(options.input, {
+    variables: options.temperatureVariable ? { air_temperature: options.temperatureVariable } : undefined,
+    rhConvention: options.rhConvention,
+    warn: options.warn,
+  });
+  try {
+    return await runOnDataset(ds, options);
+  } finally {
+    await ds.close();
+  }
+}
+
+function pickTemperature(ds: GridDataset, name: string | undefined): Field {
+  if (name === undefined) return selectTemperature(ds);
+  const f = ds.fields.find((x) => x.name === name);
+  if (f === undefined) {
+    const found = ds.fields.map((x) => x.name);
+    throw new MissingQuantityError(`${ds.path}: no variable "${name}" (variables: ${found.join(', ')})`, 'air_temperature', found, {
+      file: ds.path,
+      variable: name,
+    });
+  }
+  if (f.levelsPa.length === 0) {
+    throw new MissingQuantityError(`${ds.path}: variable ${name} is not on pressure levels`, 'air_temperature', [name], { file: ds.path, variable: name });
+  }
+  return f;
+}
+
+/** Levels (Pa) present in both fields and selected, by increasing pressure. */
+export function selectLevels(t: Field, h: Field, sel: LevelSelection | undefined, file: string): number[] {
+  const common = Array.from(t.levelsPa).filter((p) => levelIndexOf(h, p) >= 0);
+  if (common.length === 0) {
+    throw new MissingQuantityError(
+      `${file}: temperature ${t.name} and humidity ${h.name} share no pressure level`,
+      'pressure levels',
+      [t.name, h.name],
+      { file },
+    );
+  }
+  const chosen =
+    sel === undefined
+      ? common
+      : common.filter((p) => {
+          const hPa = p / 100;
+          return sel.values.some((v) => Math.abs(v - hPa) < 1e-3) || sel.ranges.some(([a, b]) => hPa >= a - 1e-9 && hPa <= b + 1e-9);
+        });
+  if (sel !== undefined) {
+    for (const v of sel.values) {
+      if (!common.some((p) => Math.abs(p / 100 - v) < 1e-3)) {
+        throw new ParameterError(`${file}: no ${v} hPa level; levels: ${common.map((p) => p / 100).join(', ')} hPa`, 'levels', { file });
+      }
+    }
+  }
+  if (chosen.length === 0) {
+    throw new ParameterError(`${file}: --levels selects none of the levels ${common.map((p) => p / 100).join(', ')} hPa`, 'levels', { file });
+  }
+  return chosen.sort((a, b) => a - b);
+}
+
+/** Time coordinates of T that humidity also has, filtered by the requested ISO times. */
+export function selectTimes(t: Field, h: Field, requested: readonly string[], file: string): TimeCoordinate[] {
+  const both = t.times.filter((c) => timeIndexOf(h, c) >= 0);
+  if (both.length === 0) throw new MissingQuantityError(`${file}: temperature and humidity share no time`, 'time', [t.name, h.name], { file });
+  if (requested.length === 0) return both;
+  const out: TimeCoordinate[] = [];
+  for (const r of requested) {
+    const ms = parseIsoTime(r);
+    const hits = both.filter((c) => (ms !== undefined && c.valid.epochMs !== undefined ? c.valid.epochMs === ms : c.valid.iso.startsWith(r)));
+    if (hits.length === 0) {
+      throw new ParameterError(`${file}: no valid time ${r}; times: ${both.map((c) => c.valid.iso).join(', ')}`, 'times', { file });
+    }
+    for (const c of hits) if (!out.includes(c)) out.push(c);
+  }
+  return out;
+}
+
+/** "20260304T0600Z" from a calendar date (model calendars keep their own date). */
+export function compactTime(t: TimeCoordinate['valid']): string {
+  const p = (n: number, w = 2) => String(n).padStart(w, '0');
+  return `${p(t.year, 4)}${p(t.month)}${p(t.day)}T${p(t.hour)}${p(t.minute)}Z`;
+}
+
+/** Folder name of a time coordinate; reference time and member are added when they distinguish it. */
+export function timeFolderName(c: TimeCoordinate, all: readonly TimeCoordinate[]): string {
+  let name = compactTime(c.valid);
+  const sameValid = all.filter((o) => o.valid.iso === c.valid.iso);
+  if (sameValid.length > 1) {
+    if (c.reference !== undefined && new Set(sameValid.map((o) => o.reference?.iso)).size > 1) name += `_ref${compactTime(c.reference)}`;
+    if (c.member !== undefined && new Set(sameValid.map((o) => o.member)).size > 1) name += `_m${c.member}`;
+  }
+  return name;
+}
+
+function levelLabel(pPa: number): string {
+  const hPa = Math.round((pPa / 100) * 1000) / 1000;
+  return `${hPa} hPa (FL${String(Math.round(flightLevelFromPressure(pPa))).padStart(3, '0')})`;
+}
+
+function inputStem(path: string): string {
+  const b = basename(path);
+  const e = extname(b);
+  return e.length > 0 && e.length < b.length ? b.slice(0, -e.length) : b;
+}
+
+interface LayerSpec {
+  readonly file: string;
+  readonly quantity: string;
+  readonly units: string;
+  readonly dtype: 'uint8' | 'float32';
+  readonly kind: 'mask' | 'continuous';
+  readonly pick: (ws: LevelWorkspace) => Uint8Array | Float32Array;
+}
+
+const LAYERS: readonly LayerSpec[] = [
+  { file: OUTPUT_FILES.rhi, quantity: 'relative humidity over ice', units: '%', dtype: 'float32', kind: 'continuous', pick: (w) => w.rhiPercent },
+  { file: OUTPUT_FILES.iceSupersaturated, quantity: 'ice-supersaturated (RHi >= threshold)', units: '1', dtype: 'uint8', kind: 'mask', pick: (w) => w.iceSupersaturated },
+  { file: OUTPUT_FILES.contrailForming, quantity: 'contrail-forming (Schmidt–Appleman criterion)', units: '1', dtype: 'uint8', kind: 'mask', pick: (w) => w.contrailForming },
+  { file: OUTPUT_FILES.persistentContrail, quantity: 'persistent contrail (forming and ice-supersaturated, below the freezing temperature)', units: '1', dtype: 'uint8', kind: 'mask', pick: (w) => w.persistentContrail },
+  { file: OUTPUT_FILES.formationMargin, quantity: 'formation margin T_LC - T', units: 'K', dtype: 'float32', kind: 'continuous', pick: (w) => w.formationMarginK },
+];
+
+async function runOnDataset(ds: GridDataset, options: MaskJobOptions): Promise<MaskJobResult> {
+  const params = options.criterion;
+  const temperature = pickTemperature(ds, options.temperatureVariable);
+  const humidity = selectHumidity(ds, { rhConvention: options.rhConvention, variable: options.humidityVariable, saturation: params.saturation });
+  if (humidity.field.grid.npoints !== temperature.grid.npoints || humidity.field.grid.kind !== temperature.grid.kind) {
+    throw new ParameterError(
+      `${ds.path}: temperature ${temperature.name} and humidity ${humidity.variable} are on different grids`,
+      'grid',
+      { file: ds.path },
+    );
+  }
+  const grid: HorizontalGrid = temperature.grid;
+  const levelsPa = selectLevels(temperature, humidity.field, options.levels, ds.path);
+  const times = selectTimes(temperature, humidity.field, options.times ?? [], ds.path);
+  const layout = rasterLayout(grid, { keepLongitude0To360: options.keepLongitude0To360 });
+  const weights = cellWeights(grid, options.bbox);
+  const ws = new LevelWorkspace(grid.npoints);
+  const criteria = levelsPa.map((p) => prepareLevel(p, params));
+  const notes = [...ds.notes];
+  const total = times.length * levelsPa.length;
+  let done = 0;
+
+  const root = join(options.outDir, inputStem(ds.path));
+  try {
+    await mkdir(root, { recursive: true });
+  } catch (e) {
+    throw new OutputError(`cannot create output folder ${root}: ${(e as Error).message}`, { file: root, cause: e });
+  }
+
+  const folders: string[] = [];
+  const summaries: Summary[] = [];
+  for (const time of times) {
+    const folderName = timeFolderName(time, times);
+    const target = join(root, folderName);
+    const tmp = join(root, `.${folderName}.partial-${process.pid}-${randomBytes(3).toString('hex')}`);
+    await mkdir(tmp, { recursive: true });
+    try {
+      const summary = new SummaryBuilder({
+        input: ds.path,
+        format: ds.format,
+        parameters: summaryParameters(params, options.bbox),
+        humidity: humidityRecord(humidity),
+      });
+      const bands: (Uint8Array | Float32Array)[][] = LAYERS.map(() => []);
+      const column = new ColumnAccumulator(grid.npoints, levelsPa);
+      let extrapolated = false;
+      for (let k = 0; k < levelsPa.length; k++) {
+        const r = await evaluateFieldLevel(ws, temperature, humidity, time, levelsPa[k], params, weights, criteria[k]);
+        extrapolated ||= r.saturationExtrapolated;
+        summary.addLevel(time, r);
+        column.addLevel(k, ws.persistentContrail);
+        LAYERS.forEach((layer, li) => bands[li].push(layout.toRasterOrder(layer.pick(ws) as Float32Array)));
+        if (options.quicklook) await writeLevelQuicklooks(tmp, layout, ws, levelsPa[k], time);
+        options.progress?.(++done, total, `${time.valid.iso} ${levelsPa[k] / 100} hPa`);
+      }
+      const heights = heightProviderFor(ds, time, levelsPa, grid.npoints);
+      const col = await column.finalize(heights);
+      summary.setColumnHeightSource(time, col.heightSource);
+      const built = summary.build();
+      const common = datasetItems(ds, params, humidity.conversion, time, extrapolated, options);
+      const descriptions = levelsPa.map(levelLabel);
+      for (let li = 0; li < LAYERS.length; li++) {
+        const layer = LAYERS[li];
+        await writeLayer(join(tmp, layer.file), layout, layer.dtype, layer.kind, bands[li], {
+          bandDescriptions: descriptions,
+          bandItems: levelsPa.map((p) => ({ pressure_hPa: String(p / 100), flight_level: String(Math.round(flightLevelFromPressure(p) * 10) / 10) })),
+          items: { ...common, quantity: layer.quantity, units: layer.units },
+        });
+        bands[li] = [];
+      }
+      await writeLayer(
+        join(tmp, OUTPUT_FILES.column),
+        layout,
+        'float32',
+        'continuous',
+        COLUMN_BANDS.map((b) => layout.toRasterOrder(col[b.key] as Float32Array)),
+        {
+          bandDescriptions: COLUMN_BANDS.map((b) => b.description),
+          bandItems: COLUMN_BANDS.map((b) => ({ name: b.name })),
+          items: {
+            ...common,
+            quantity: 'persistent-contrail layers per column',
+            column_height_source: col.heightSource + (col.heightVariable ? ` (${col.heightVariable})` : ''),
+            layer_rule: 'each level stands for the layer between the log-pressure midpoints to its neighbours',
+          },
+        },
+      );
+      await writeFile(join(tmp, OUTPUT_FILES.summaryJson), JSON.stringify(built, null, 2) + '\n');
+      await writeFile(join(tmp, OUTPUT_FILES.summaryCsv), summaryToCsv(built));
+      await replaceFolder(tmp, target);
+      folders.push(target);
+      summaries.push(built);
+      if (extrapolated) notes.push(`${time.valid.iso}: the ${params.saturation} saturation formulation was used outside its fitted range (extrapolated); recorded in the outputs`);
+    } catch (e) {
+      await rm(tmp, { recursive: true, force: true });
+      throw e;
+    }
+  }
+  return { folders, summaries, notes: [...new Set(notes)] };
+}
+
+function datasetItems(
+  ds: GridDataset,
+  params: CriterionParameters,
+  humidityConversion: string,
+  time: TimeCoordinate,
+  extrapolated: boolean,
+  options: MaskJobOptions,
+): Record<string, string> {
+  return {
+    valid_time: time.valid.iso,
+    ...(time.reference ? { reference_time: time.reference.iso } : {}),
+    ...(time.member !== undefined ? { member: String(time.member) } : {}),
+    input_file: ds.path,
+    input_format: ds.format,
+    fuel: params.fuel.name,
+    ei_h2o_kg_per_kg: String(params.fuel.eiH2O),
+    lhv_MJ_per_kg: String(params.fuel.lhvJPerKg / 1e6),
+    efficiency: String(params.efficiency),
+    saturation_formulation: params.saturation,
+    saturation_extrapolated: String(extrapolated),
+    ice_threshold_percent: String(params.iceThresholdPercent),
+    freezing_temperature_K: String(params.freezingTemperatureK),
+    humidity_scale: String(params.humidityScale),
+    humidity_cap: params.humidityScale === 1 ? 'none (scale off)' : 'scaled vapour pressure capped at water saturation',
+    humidity_conversion: humidityConversion,
+    ...(options.bbox ? { statistics_bbox: `${options.bbox.west},${options.bbox.south},${options.bbox.east},${options.bbox.north}` } : {}),
+    software: `frostgrid ${VERSION}`,
+    caution: 'for research and planning; not an operational flight-planning tool',
+  };
+}
+
+async function writeLayer(
+  path: string,
+  layout: RasterLayout,
+  dtype: 'uint8' | 'float32',
+  kind: 'mask' | 'continuous',
+  bands: readonly (Uint8Array | Float32Array)[],
+  metadata: RasterMetadata,
+): Promise<void> {
+  await writeGeoTiff(
+    path,
+    {
+      width: layout.width,
+      height: layout.height,
+      count: bands.length,
+      dtype,
+      crs: layout.crs,
+      transform: layout.transform,
+      nodata: dtype === 'uint8' ? MASK_NODATA : Number.NaN,
+      compress: 'deflate',
+      tiled: true,
+      cog: true,
+      overviewResampling: kind === 'mask' ? 'mode' : 'average',
+    },
+    [...bands],
+    metadata,
+  );
+}
+
+async function writeLevelQuicklooks(dir: string, layout: RasterLayout, ws: LevelWorkspace, pPa: number, time: TimeCoordinate): Promise<void> {
+  const qdir = join(dir, OUTPUT_FILES.quicklookDir);
+  await mkdir(qdir, { recursive: true });
+  const hPa = Math.round(pPa / 100);
+  const base = { width: layout.width, height: layout.height, transform: layout.transform, crs: layout.crs };
+  await writeQuicklook(join(qdir, `persistent-contrail-${hPa}hPa.png`), {
+    ...base,
+    values: layout.toRasterOrder(ws.persistentContrail),
+    kind: 'mask',
+    title: `persistent contrail  ${levelLabel(pPa)}  ${time.valid.iso}`,
+    nodata: MASK_NODATA,
+  });
+  await writeQuicklook(join(qdir, `rhi-${hPa}hPa.png`), {
+    ...base,
+    values: layout.toRasterOrder(ws.rhiPercent),
+    kind: 'continuous',
+    title: `RHi  ${levelLabel(pPa)}  ${time.valid.iso}`,
+    units: '%',
+    range: [0, 150],
+  });
+}
+
+/** Moves a completed folder into place, replacing an older one. */
+async function replaceFolder(tmp: string, target: string): Promise<void> {
+  const old = `${target}.old-${process.pid}-${randomBytes(3).toString('hex')}`;
+  let moved = false;
+  try {
+    try {
+      await rename(target, old);
+      moved = true;
+    } catch (e) {
+      if ((e as NodeJS.ErrnoException).code !== 'ENOENT') throw e;
+    }
+    await rename(tmp, target);
+  } catch (e) {
+    if (moved) await rename(old, target).catch(() => undefined);
+    throw new OutputError(`cannot move outputs into ${target}: ${(e as Error).message}`, { file: target, cause: e });
+  }
+  if (moved) await rm(old, { recursive: true, force: true });
+}

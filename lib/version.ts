@@ -1,0 +1,2 @@
+/** frostgrid's version, written into every output (a test keeps it equal to package.json). */
+export const VERSION = '0.1.0';
