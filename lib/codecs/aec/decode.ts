@@ -66,6 +66,13 @@ export function emptyAecOptionCounts(): AecOptionCounts {
   };
 }
 
+function truncated(sample: number, sampleCount: number, where: string, byteLength: number): DecodeError {
+  return new DecodeError(
+    `CCSDS stream: stream ends before sample ${Math.min(sample, sampleCount)} of ${sampleCount} (${where}, ${byteLength} bytes)`,
+    { offset: byteLength },
+  );
+}
+
 function malformed(what: string, block: number, bitOffset: number): DecodeError {
   return new DecodeError(`CCSDS stream: ${what} in block ${block} (bit offset ${bitOffset})`, {
     offset: Math.floor(bitOffset / 8),
@@ -185,7 +192,8 @@ export function aecDecode(
           if (acc !== 0) break;
           fs += held;
           held = 0;
-          if (pos > len || fs > SEGMENT_BLOCKS) throw malformed('zero-block count runs past the end', block, lenBits);
+          if (pos > len) throw truncated(i, sampleCount, 'in a zero-block count', len);
+          if (fs > SEGMENT_BLOCKS) throw malformed(`zero-block count ${fs} exceeds ${SEGMENT_BLOCKS}`, block, pos * 8);
         }
         const z = Math.clz32(acc);
         fs += z;
@@ -223,7 +231,7 @@ export function aecDecode(
               if (acc !== 0) break;
               m += held;
               held = 0;
-              if (pos > len) throw malformed('second-extension codeword runs past the end', block, lenBits);
+              if (pos > len) throw truncated(i, sampleCount, 'in a second-extension codeword', len);
             }
             const z = Math.clz32(acc);
             m += z;
@@ -292,7 +300,10 @@ export function aecDecode(
               if (acc !== 0) break;
               fs += held;
               held = 0;
-              if (pos > len || fs > fsMax) throw malformed('fundamental-sequence code runs past the end', block, pos * 8);
+              if (pos > len) throw truncated(i, sampleCount, 'in a fundamental-sequence code', len);
+              if (fs > fsMax) {
+                throw malformed(`split-sample high part ${fs} (k = ${k}) exceeds ${n} bits`, block, pos * 8 - held);
+              }
             }
             const z = Math.clz32(acc);
             fs += z;
@@ -340,7 +351,7 @@ export function aecDecode(
         block += 1;
       }
       if (pos * 8 - held > lenBits) {
-        throw malformed(`stream ends before sample ${Math.min(block * J, sampleCount)} of ${sampleCount}`, block - 1, lenBits);
+        throw truncated(blockStart, sampleCount, `in block ${block - 1}`, len);
       }
     }
     if (padRsi) {
