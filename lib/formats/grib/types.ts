@@ -147,6 +147,11 @@ export interface GribFieldInfo {
   readonly hasBitmap: boolean;
   /** Unpacks the field: numberOfPoints values in the message's scanning order, NaN where missing. */
   decode(): Float64Array;
+  /**
+   * The same as decode(), for packings whose codec is asynchronous (GRIB2 5.40 JPEG 2000, 5.41
+   * PNG); decode() throws for those. Optional: callers fall back to decode() when absent.
+   */
+  decodeAsync?(): Promise<Float64Array>;
 }
 
 /** What a parameter table says about a parameter (tables are data: see tables/). */

@@ -1,0 +1,68 @@
+/**
+ * The GRIB driver's GridDataset: fields grouped by parameter and level type, levels in Pa, times
+ * with reference and step, SI units, and slices equal to ecCodes' values (reference.json) of the
+ * message that holds that time and level.
+ */
+import { readFileSync } from 'node:fs';
+import { describe, expect, it } from 'vitest';
+import { gribDriver } from '../../lib/formats/grib/index.js';
+import { REFERENCE, ecDate, firstMismatch, fixture } from './reference.js';
+
+const FILE = 'll-isobaric-tq.grib2';
+const ref = REFERENCE[FILE].messages;
+
+describe('gribDriver', () => {
+  it('sniffs GRIB at the start and after leading junk, and rejects other bytes', () => {
+    const msg = readFileSync(fixture(FILE)).subarray(0, 512);
+    expect(gribDriver.sniff(msg)).toBe(true);
+    const junk = new Uint8Array(600);
+    junk.set(new TextEncoder().encode('HTTP transfer header\r\n'), 0);
+    junk.set(msg.subarray(0, 300), 100);
+    expect(gribDriver.sniff(junk)).toBe(true);
+    expect(gribDriver.sniff(new TextEncoder().encode('CDF\x01 not a grib file at all, GRIB mentioned'))).toBe(false);
+  });
+
+  it('opens t and q on isobaric levels with times, units and encoding (WMO code table 4.2: 0/0/0, 0/1/0)', async () => {
+    const ds = await gribDriver.open(fixture(FILE), {});
+    try {
+      expect(ds.format).toBe('grib2');
+      const names = ds.fields.map((f) => f.name).sort();
+      expect(names).toEqual(['q', 't']);
+      const t = ds.fields.find((f) => f.name === 't')!;
+      const q = ds.fields.find((f) => f.name === 'q')!;
+      expect(t.quantity).toBe('air_temperature');
+      expect(t.units).toBe('K');
+      expect(q.quantity).toBe('specific_humidity');
+      expect(q.units).toBe('kg kg-1');
+      const levels = [...new Set(ref.map((m) => m.level * 100))].sort((a, b) => a - b);
+      expect(Array.from(t.levelsPa)).toEqual(levels);
+      const valid = [...new Set(ref.map((m) => ecDate(m.validityDate, m.validityTime)))].sort((a, b) => a - b);
+      expect(t.times.map((x) => x.valid.epochMs)).toEqual(valid);
+      expect(t.times.map((x) => x.stepHours)).toEqual(valid.map((v) => (v - ecDate(ref[0].dataDate, ref[0].dataTime)) / 3600000));
+      expect(t.rhConvention).toBeUndefined();
+      const m0 = ref.find((m) => m.shortName === 't')!;
+      expect(t.encoding.quantizationStep).toBe(2 ** m0.binaryScaleFactor * 10 ** -m0.decimalScaleFactor);
+      expect(t.encoding.storedType).toBe('grib2-5.0');
+      expect(t.grid.kind).toBe('regular_ll');
+    } finally {
+      await ds.close();
+    }
+  });
+
+  it.each(ref.map((m, k) => [k, m] as const))('slice of message %i equals ecCodes values', async (_k, m) => {
+    const ds = await gribDriver.open(fixture(FILE), {});
+    try {
+      const f = ds.fields.find((x) => x.name === m.shortName)!;
+      const ti = f.times.findIndex((x) => x.valid.epochMs === ecDate(m.validityDate, m.validityTime));
+      const li = Array.from(f.levelsPa).indexOf(m.level * 100);
+      expect(ti).toBeGreaterThanOrEqual(0);
+      expect(li).toBeGreaterThanOrEqual(0);
+      const slice = await f.readSlice(ti, li);
+      // Scanning mode 0: frostgrid's order is the message order; values are float32.
+      const want = m.values.map((v) => (v === null ? null : Math.fround(v)));
+      expect(firstMismatch(slice, want, 1e-7)).toBe(-1);
+    } finally {
+      await ds.close();
+    }
+  });
+});
