@@ -10,12 +10,12 @@ import type { GribFieldInfo, GribMessageLocation } from '../types.js';
 import { MessageContext } from './context.js';
 import { grib1MessageLength, SECTION0_LENGTH } from './length.js';
 import { u24 } from './octets.js';
-import { decodeSecondOrder, readSecondOrderHeader, unBoustrophedon, type SecondOrderHeader } from './second-order.js';
+import { decodeSecondOrder, readSecondOrderHeader, readSecondOrderLayout, unBoustrophedon, type SecondOrderHeader } from './second-order.js';
 import { readSection1 } from './section1.js';
 import { readSection2 } from './section2.js';
-import { applyBitmap, readSection3, type Section3 } from './section3.js';
+import { applyBitmap, countPresent, readSection3, type Section3 } from './section3.js';
 import { readSection4 } from './section4.js';
-import { decodeSimple } from './simple.js';
+import { checkSimple, decodeSimple } from './simple.js';
 
 /**
  * Fewest points any message may declare without data to justify them (a constant field); above
@@ -73,10 +73,13 @@ export function parseGrib1Message(file: string, bytes: Uint8Array, location: Gri
   const numberOfPoints = gds.numberOfPoints;
 
   const decode = (): Float64Array => {
+    const present = bms ? countPresent(bms, numberOfPoints) : numberOfPoints;
+    // Check the data against the point count before allocating anything of that size.
+    const layout = secondOrder ? readSecondOrderLayout(bds, secondOrder, present, ctx) : undefined;
+    if (!layout) checkSimple(bds, present, ctx);
     const out = new Float64Array(numberOfPoints);
-    const present = bms ? bms.present : numberOfPoints;
     const packed = bms ? new Float64Array(present) : out;
-    if (secondOrder) decodeSecondOrder(bds, secondOrder, pds.decimalScale, present, packed, ctx);
+    if (layout) decodeSecondOrder(bds, layout, pds.decimalScale, present, packed);
     else decodeSimple(bds, pds.decimalScale, present, packed, ctx);
     if (bms) applyBitmap(bms, packed, out);
     if (secondOrder?.boustrophedonic) unBoustrophedon(out, gds.rows, gds.columns, gds.pl);

@@ -71,15 +71,23 @@ export function readSecondOrderHeader(bds: Section4, ctx: MessageContext): Secon
   return { extendedFlags: ext, orderOfSpd: ext & 3, boustrophedonic: (ext & EXT_BOUSTROPHEDONIC) !== 0 };
 }
 
-/** Decodes the `count` coded values of a general extended second-order section into `out`. */
-export function decodeSecondOrder(
-  bds: Section4,
-  header: SecondOrderHeader,
-  decimalScale: number,
-  count: number,
-  out: Float64Array,
-  ctx: MessageContext,
-): void {
+/** The group descriptors of a second-order section, checked against the section and the count. */
+export interface SecondOrderLayout {
+  readonly order: number;
+  /** SPD initial values followed by the bias. */
+  readonly spd: readonly number[];
+  readonly widths: Uint32Array;
+  readonly lengths: Uint32Array;
+  readonly firsts: Float64Array;
+  /** Bit position in section 4 of the second-order values. */
+  readonly dataBit: number;
+}
+
+/**
+ * Reads and checks the descriptors for `count` coded values (allocations are bounded by the
+ * section length or by `count`, which the caller has bounded).
+ */
+export function readSecondOrderLayout(bds: Section4, header: SecondOrderHeader, count: number, ctx: MessageContext): SecondOrderLayout {
   const b = bds.bytes;
   const at = (octet: number) => bds.offset + octet - 1;
   const widthFirst = b[10];
@@ -147,10 +155,18 @@ export function decodeSecondOrder(
   if (dataBits > available) {
     throw ctx.format(bds.offset, `second-order values need ${Math.ceil(dataBits / 8)} bytes, section 4 has ${bds.length - pos} after the descriptors`);
   }
+  return { order, spd, widths, lengths, firsts, dataBit: pos * 8 };
+}
+
+/** Decodes the `count` coded values of a general extended second-order section into `out`. */
+export function decodeSecondOrder(bds: Section4, layout: SecondOrderLayout, decimalScale: number, count: number, out: Float64Array): void {
+  const b = bds.bytes;
+  const { order, spd, widths, lengths, firsts } = layout;
+  const groups = widths.length;
   // X: the integers before spatial differencing is undone.
   const x = out;
   let k = order;
-  let bit = pos * 8;
+  let bit = layout.dataBit;
   for (let g = 0; g < groups; g++) {
     const len = lengths[g];
     const w = widths[g];

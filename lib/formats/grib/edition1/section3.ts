@@ -11,8 +11,6 @@ export interface Section3 {
   readonly length: number;
   /** The whole bitmap section; bits start at byte 6. */
   readonly bytes: Uint8Array;
-  /** Number of points with a value (1 bits among the first numberOfPoints bits). */
-  readonly present: number;
 }
 
 const POPCOUNT = new Uint8Array(256);
@@ -30,12 +28,18 @@ export function readSection3(msg: Uint8Array, p: number, end: number, numberOfPo
   if (bits < numberOfPoints) {
     throw ctx.format(p, `bitmap holds ${bits} bits, the grid has ${numberOfPoints} points`);
   }
+  return { length, bytes };
+}
+
+/** Number of points with a value: 1 bits among the first `numberOfPoints` bits of the bitmap. */
+export function countPresent(bms: Section3, numberOfPoints: number): number {
+  const bytes = bms.bytes;
   const full = numberOfPoints >>> 3;
   let present = 0;
   for (let i = 0; i < full; i++) present += POPCOUNT[bytes[6 + i]];
   const rest = numberOfPoints & 7;
   if (rest !== 0) present += POPCOUNT[bytes[6 + full] & (0xff << (8 - rest)) & 0xff];
-  return { length, bytes, present };
+  return present;
 }
 
 /** Spreads `packed` (one value per 1 bit) over `out` in grid order, NaN where the bit is 0. */

@@ -10,6 +10,25 @@ import { unpackUnsigned } from '../../../codecs/bits.js';
 import type { MessageContext } from './context.js';
 import type { Section4 } from './section4.js';
 
+/**
+ * Checks that section 4 holds `count` values of its width, give or take the padding encoders
+ * leave: fewer bits than needed, or at least max(bits, 16) bits more, is an error (the bitmap or
+ * grid does not match the data).
+ */
+export function checkSimple(bds: Section4, count: number, ctx: MessageContext): void {
+  const bits = bds.octet11;
+  if (bits === 0) return;
+  if (bits > 32) throw ctx.decode(bds.offset + 10, `${bits} bits per value is more than 32`, 'bitsPerValue');
+  const available = (bds.length - 11) * 8 - bds.unusedBits;
+  const needed = count * bits;
+  if (needed > available) {
+    throw ctx.decode(bds.offset, `section 4 holds ${Math.max(0, Math.floor(available / bits))} values of ${bits} bits, ${count} are needed`);
+  }
+  if (available - needed >= Math.max(bits, 16)) {
+    throw ctx.decode(bds.offset, `section 4 holds ${Math.floor(available / bits)} values of ${bits} bits, but ${count} are expected`);
+  }
+}
+
 /** Decodes `count` packed values into `out[0..count)`. */
 export function decodeSimple(bds: Section4, decimalScale: number, count: number, out: Float64Array, ctx: MessageContext): void {
   const bits = bds.octet11;
@@ -20,15 +39,7 @@ export function decodeSimple(bds: Section4, decimalScale: number, count: number,
     out.fill(r * d, 0, count);
     return;
   }
-  if (bits > 32) throw ctx.decode(bds.offset + 10, `${bits} bits per value is more than 32`, 'bitsPerValue');
-  const available = (bds.length - 11) * 8 - bds.unusedBits;
-  const needed = count * bits;
-  if (needed > available) {
-    throw ctx.decode(bds.offset, `section 4 holds ${Math.max(0, Math.floor(available / bits))} values of ${bits} bits, ${count} are needed`);
-  }
-  if (available - needed >= Math.max(bits, 16)) {
-    throw ctx.decode(bds.offset, `section 4 holds ${Math.floor(available / bits)} values of ${bits} bits, but ${count} are expected`);
-  }
+  checkSimple(bds, count, ctx);
   unpackUnsigned(bds.bytes, 11 * 8, bits, count, out);
   for (let i = 0; i < count; i++) out[i] = (out[i] * s + r) * d;
 }

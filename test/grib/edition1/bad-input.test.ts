@@ -1,0 +1,220 @@
+/**
+ * Bad input: each case damages one ecCodes-made fixture in one place and expects a typed error
+ * that names the file, the message number, the byte offset in the file and what is wrong.
+ * Octet positions are those of FM 92 GRIB edition 1 (section 0: 8 octets; section 1 of these
+ * fixtures: 52 octets with ECMWF local definition 1; section 2 of a lat-lon grid: 32 octets).
+ */
+import { describe, expect, it } from 'vitest';
+import { DecodeError, FormatError, UnsupportedError } from '../../../lib/errors.js';
+import { parseGrib1Message } from '../../../lib/formats/grib/edition1/index.js';
+import { loadFixture } from './fixtures.js';
+
+const FILE = 'damaged.grib';
+/** The damaged message is message 3 of its file and starts at byte 1000. */
+const MESSAGE = 3;
+const OFFSET = 1000;
+
+function damaged(name: string, edit: (b: Uint8Array) => Uint8Array | void): Uint8Array {
+  const b = new Uint8Array(loadFixture(name).bytes);
+  return edit(b) ?? b;
+}
+
+function parse(bytes: Uint8Array) {
+  return parseGrib1Message(FILE, bytes, { number: MESSAGE, offset: OFFSET, length: bytes.length, edition: 1 });
+}
+
+function put24(b: Uint8Array, p: number, v: number): void {
+  b[p] = (v >>> 16) & 0xff;
+  b[p + 1] = (v >>> 8) & 0xff;
+  b[p + 2] = v & 0xff;
+}
+
+/** Section offsets within a fixture: PDS at 8, then GDS, BMS, BDS by their lengths. */
+function sections(b: Uint8Array): { gds: number; bms: number | undefined; bds: number } {
+  const u24 = (p: number) => (b[p] << 16) | (b[p + 1] << 8) | b[p + 2];
+  const gds = 8 + u24(8);
+  const afterGds = gds + u24(gds);
+  const hasBms = (b[8 + 7] & 0x40) !== 0;
+  return { gds, bms: hasBms ? afterGds : undefined, bds: hasBms ? afterGds + u24(afterGds) : afterGds };
+}
+
+function expectError(fn: () => unknown, type: typeof FormatError | typeof DecodeError | typeof UnsupportedError, offset: number, text: RegExp) {
+  let caught: unknown;
+  try {
+    fn();
+  } catch (e) {
+    caught = e;
+  }
+  expect(caught).toBeInstanceOf(type);
+  const e = caught as FormatError;
+  expect(e.file).toBe(FILE);
+  expect(e.messageNumber).toBe(MESSAGE);
+  expect(e.offset).toBe(offset);
+  expect(e.message).toMatch(new RegExp(`^${FILE}: GRIB1 message ${MESSAGE} at byte ${offset}: `));
+  expect(e.message).toMatch(text);
+  return e;
+}
+
+describe('GRIB1 bad input', () => {
+  it('a truncated message is a FormatError stating both lengths', () => {
+    const full = loadFixture('ll_t500_t128_16bit').bytes;
+    const cut = full.slice(0, 400);
+    expectError(() => parse(cut), FormatError, OFFSET + 4, new RegExp(`truncated: total length ${full.length}, only 400 bytes present`));
+  });
+
+  it('a message cut inside section 0 is a FormatError', () => {
+    expectError(() => parse(new Uint8Array([0x47, 0x52, 0x49, 0x42, 0])), FormatError, OFFSET, /truncated: 5 bytes, section 0 needs 8/);
+  });
+
+  it('a section 2 length past the end of the message is a FormatError', () => {
+    const b = damaged('ll_t500_t128_16bit', (b) => put24(b, sections(b).gds, 0x7fff00));
+    expectError(() => parse(b), FormatError, OFFSET + 60, /section 2 length 8388352 runs past the end of the message/);
+  });
+
+  it('a section 4 length past the end of the message is a FormatError', () => {
+    const b = damaged('ll_t500_t128_16bit', (b) => put24(b, sections(b).bds, 5000));
+    expectError(() => parse(b), FormatError, OFFSET + 92, /section 4 length 5000 runs past the end/);
+  });
+
+  it('a section 4 that does not end at "7777" is a FormatError', () => {
+    const b = damaged('ll_t500_t128_16bit', (b) => {
+      b[b.length - 2] = 0x36;
+    });
+    expectError(() => parse(b), FormatError, OFFSET + b.length - 4, /end marker "7777" not found/);
+  });
+
+  it('an unknown grid type (Code table 6) is an UnsupportedError naming it', () => {
+    const b = damaged('ll_t500_t128_16bit', (b) => {
+      b[sections(b).gds + 5] = 1; // 1 = Mercator, not decoded
+    });
+    const e = expectError(() => parse(b), UnsupportedError, OFFSET + 60 + 5, /data representation type \(Code table 6\) 1 is not supported/) as unknown as UnsupportedError;
+    expect(e.id).toBe(1);
+  });
+
+  it('a message without section 2 (predefined grid) is an UnsupportedError', () => {
+    const b = damaged('ll_t500_t128_16bit', (b) => {
+      b[8 + 7] &= ~0x80;
+    });
+    expectError(() => parse(b), UnsupportedError, OFFSET + 14, /predefined grid \(no section 2\), grid definition number 255/);
+  });
+
+  it('a bitmap shorter than the grid is a FormatError', () => {
+    const b = damaged('ll_z250_t128_24bit_bitmap', (b) => {
+      const { gds } = sections(b);
+      b[gds + 7] = 20; // Ni 16 -> 20: 240 points, the bitmap has 192 bits
+    });
+    expectError(() => parse(b), FormatError, OFFSET + 92, /bitmap holds 192 bits, the grid has 240 points/);
+  });
+
+  it('a bitmap whose present points do not match the packed values is a DecodeError at decode()', () => {
+    const b = damaged('ll_z250_t128_24bit_bitmap', (b) => {
+      const bms = sections(b).bms!;
+      b[bms + 6 + 5] = 0xff; // points 40..47 were missing (make_fixtures.py), now marked present
+    });
+    const info = parse(b);
+    const present = loadFixture('ll_z250_t128_24bit_bitmap').ref.values.filter((v) => v !== null).length;
+    expectError(() => info.decode(), DecodeError, OFFSET + sections(b).bds, new RegExp(`section 4 holds ${present} values of 24 bits, ${present + 8} are needed`));
+  });
+
+  it('a predefined bitmap is an UnsupportedError naming its number', () => {
+    const b = damaged('ll_z250_t128_24bit_bitmap', (b) => {
+      const bms = sections(b).bms!;
+      b[bms + 5] = 7;
+    });
+    expectError(() => parse(b), UnsupportedError, OFFSET + 92 + 4, /predefined bitmap 7 is not supported/);
+  });
+
+  it('an absurd grid size with a constant field is refused before anything is allocated', () => {
+    const b = damaged('ll_gh200_wmo3_constant', (b) => {
+      const { gds } = sections(b);
+      b[gds + 6] = 0xff;
+      b[gds + 7] = 0xfe; // Ni 65534
+      b[gds + 8] = 0xff;
+      b[gds + 9] = 0xfe; // Nj 65534
+    });
+    expectError(() => parse(b), FormatError, OFFSET + sections(b).gds, /grid declares 4294705156 points, more than a message of 84 bytes can justify/);
+  });
+
+  it('a grid larger than its simple-packed data is a DecodeError before allocation', () => {
+    const b = damaged('ll_t500_t128_16bit', (b) => {
+      const { gds } = sections(b);
+      b[gds + 6] = 0x0f; // Ni 24 -> 3840 + 24: 50 232 points, the data hold 312
+    });
+    const info = parse(b);
+    expect(info.numberOfPoints).toBe((0x0f00 + 24) * 13);
+    expectError(() => info.decode(), DecodeError, OFFSET + 92, /section 4 holds 312 values of 16 bits, 50232 are needed/);
+  });
+
+  it('a second-order group count that does not match the grid is a DecodeError', () => {
+    const b = damaged('ll_t250_t128_second_order', (b) => {
+      const { gds } = sections(b);
+      b[gds + 9] = 20; // Nj 21 -> 20
+    });
+    expectError(() => parse(b).decode(), DecodeError, OFFSET + sections(b).bds, /second-order groups hold 840 values .*, 800 are expected/);
+  });
+
+  it('unknown second-order flag combinations are an UnsupportedError naming the flags', () => {
+    const b = damaged('ll_t250_t128_second_order', (b) => {
+      b[sections(b).bds + 13] = 0x30; // secondary bitmap + different widths (general, not extended)
+    });
+    expectError(
+      () => parse(b),
+      UnsupportedError,
+      OFFSET + sections(b).bds + 13,
+      /extended flags 0x30 is not supported \(secondary bitmap, second-order values of different widths, spatial differencing order 0;/,
+    );
+  });
+
+  it('spherical harmonic data are an UnsupportedError', () => {
+    const b = damaged('ll_t500_t128_16bit', (b) => {
+      b[sections(b).bds + 3] |= 0x80;
+    });
+    expectError(() => parse(b), UnsupportedError, OFFSET + 95, /spherical harmonic data/);
+  });
+
+  it('a reference date that is not a date is a DecodeError', () => {
+    const b = damaged('ll_t500_t128_16bit', (b) => {
+      b[8 + 13] = 2;
+      b[8 + 14] = 30; // 30 February
+    });
+    expectError(() => parse(b), DecodeError, OFFSET + 8 + 12, /reference time 2026-02-30 00:00 is not a date/);
+  });
+
+  it('a time range indicator without a defined step is an UnsupportedError', () => {
+    const b = damaged('ll_t500_t128_16bit', (b) => {
+      b[8 + 20] = 51;
+    });
+    expectError(() => parse(b), UnsupportedError, OFFSET + 8 + 20, /time range indicator \(Code table 5\) 51 is not supported/);
+  });
+
+  it('a time unit without a fixed length (month) is an UnsupportedError', () => {
+    const b = damaged('ll_t500_t128_16bit', (b) => {
+      b[8 + 17] = 3;
+    });
+    expectError(() => parse(b), UnsupportedError, OFFSET + 8 + 17, /time unit \(Code table 4\) 3 is not supported/);
+  });
+
+  it('random damage never hangs and only ever raises typed errors', () => {
+    // Deterministic corruption of every fixture octet by octet; decode() must finish or throw one
+    // of the typed errors (no RangeError from a typed array, no TypeError).
+    const names = ['ll_t500_t128_16bit', 'll_z250_t128_24bit_bitmap', 'reduced_gg_n8_r700_t128_second_order', 'll_q400_t128_second_order_boustrophedonic_bitmap'];
+    let typed = 0;
+    for (const name of names) {
+      const base = loadFixture(name).bytes;
+      for (let p = 4; p < Math.min(base.length, 140); p++) {
+        for (const v of [0x00, 0xff, base[p] ^ 0x55]) {
+          const b = new Uint8Array(base);
+          b[p] = v;
+          try {
+            const info = parse(b);
+            info.decode();
+          } catch (e) {
+            expect(e instanceof FormatError || e instanceof DecodeError || e instanceof UnsupportedError, `${name} octet ${p + 1} = ${v}: ${String(e)}`).toBe(true);
+            typed++;
+          }
+        }
+      }
+    }
+    expect(typed).toBeGreaterThan(100);
+  });
+});
