@@ -67,20 +67,22 @@ export function unpackUnsigned(
     }
     return;
   }
-  // 25..32 bits: assemble with floating arithmetic to stay exact beyond 31 bits.
+  // 25..32 bits: a high part of (bitsPerValue − 16) bits and a low 16-bit part, each read from the
+  // 31-bit window, joined with floating arithmetic to stay exact beyond 31 bits.
+  const hiBits = bitsPerValue - 16;
+  const hiMask = (1 << hiBits) - 1;
   for (let i = 0; i < count; i++) {
-    let v = 0;
-    let need = bitsPerValue;
-    while (need > 0) {
-      if (held === 0) {
-        acc = bytes[pos++];
-        held = 8;
-      }
-      const take = need < held ? need : held;
-      held -= take;
-      v = v * (1 << take) + ((acc >>> held) & ((1 << take) - 1));
-      need -= take;
+    while (held < hiBits) {
+      acc = ((acc << 8) | bytes[pos++]) & 0x7fffffff;
+      held += 8;
     }
-    out[i] = v;
+    held -= hiBits;
+    const hi = (acc >>> held) & hiMask;
+    while (held < 16) {
+      acc = ((acc << 8) | bytes[pos++]) & 0x7fffffff;
+      held += 8;
+    }
+    held -= 16;
+    out[i] = hi * 65536 + ((acc >>> held) & 0xffff);
   }
 }
