@@ -12,6 +12,8 @@ export interface Psychrolib {
   SetUnitSystem(units: number): void;
   /** Saturation vapour pressure, Pa, from dry-bulb temperature in °C (SI); over ice at ≤ 0.01 °C. */
   GetSatVapPres(tC: number): number;
+  /** Dew point in °C (over ice below 0.01 °C, i.e. a frost point) from dry-bulb °C and vapour pressure Pa; Newton to 0.001 °C. */
+  GetTDewPointFromVapPres(tDryC: number, vapPresPa: number): number;
 }
 
 const require = createRequire(import.meta.url);
