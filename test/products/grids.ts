@@ -1,7 +1,20 @@
 /**
  * Grid descriptors for the products tests (plain objects of the grid model; no file behind them).
  */
-import type { EarthShape, GaussianGrid, ProjectedGrid, RegularLatLonGrid, RotatedLatLonGrid } from '../../lib/grid/types.js';
+import type {
+  EarthShape,
+  Encoding,
+  Field,
+  GaussianGrid,
+  GridDataset,
+  HorizontalGrid,
+  ProjectedGrid,
+  Quantity,
+  RegularLatLonGrid,
+  RhConventionRecord,
+  RotatedLatLonGrid,
+  TimeCoordinate,
+} from '../../lib/grid/types.js';
 import { WGS84 } from '../../lib/grid/types.js';
 
 /** Regular global grid with rows from 90 to −90 and columns from 0 east. */
@@ -131,4 +144,65 @@ export function rotatedGlobalGrid(step: number, southPoleLat: number, southPoleL
     southPoleLon,
     rotationAngle: 0,
   };
+}
+
+/** A time coordinate on the standard calendar. */
+export function timeAt(iso: string): TimeCoordinate {
+  const d = new Date(iso);
+  return {
+    valid: {
+      calendar: 'standard',
+      year: d.getUTCFullYear(),
+      month: d.getUTCMonth() + 1,
+      day: d.getUTCDate(),
+      hour: d.getUTCHours(),
+      minute: d.getUTCMinutes(),
+      second: d.getUTCSeconds(),
+      iso: d.toISOString().replace('.000Z', 'Z'),
+      epochMs: d.getTime(),
+    },
+  };
+}
+
+/** An in-memory field whose slices come from `values(t, k, i)`. */
+export function memoryField(spec: {
+  name: string;
+  quantity: Quantity | undefined;
+  units: string;
+  grid: HorizontalGrid;
+  levelsPa: number[];
+  times: TimeCoordinate[];
+  values: (t: number, k: number, i: number) => number;
+  quantizationStep?: number;
+  rhConvention?: RhConventionRecord;
+  attrs?: Record<string, string | number>;
+}): Field {
+  const encoding: Encoding = {
+    storedType: spec.quantizationStep ? 'int16' : 'float32',
+    sourceUnits: spec.units,
+    unitScale: 1,
+    unitOffset: 0,
+    quantizationStep: spec.quantizationStep ?? 0,
+  };
+  return {
+    name: spec.name,
+    quantity: spec.quantity,
+    units: spec.units,
+    grid: spec.grid,
+    levelsPa: Float64Array.from(spec.levelsPa),
+    times: spec.times,
+    rhConvention: spec.rhConvention,
+    encoding,
+    attrs: spec.attrs ?? {},
+    async readSlice(t: number, k: number, out?: Float32Array): Promise<Float32Array> {
+      const o = out ?? new Float32Array(spec.grid.npoints);
+      for (let i = 0; i < o.length; i++) o[i] = spec.values(t, k, i);
+      return o;
+    },
+  };
+}
+
+/** A dataset of in-memory fields. */
+export function memoryDataset(fields: Field[], path = 'memory.nc'): GridDataset {
+  return { path, format: 'netcdf4', attrs: {}, fields, notes: [], async close() {} };
 }
