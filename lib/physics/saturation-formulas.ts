@@ -117,8 +117,9 @@ export function lnIce(code: number, t: number): number {
       return LN10 * (GG_IA * (r - 1) + GG_IB * Math.log10(r) + GG_IC * (1 - 1 / r) + GG_ILOG_E0) + LN_HPA;
     }
     case CODE_IAPWS: {
-      const th = t / TRIPLE_POINT_T;
-      return IA_LN_PT + (IA_A1 * th ** IA_B1 + IA_A2 * th ** IA_B2 + IA_A3 * th ** IA_B3) / th;
+      // θ^b = exp(b ln θ), sharing ln θ
+      const lth = Math.log(t / TRIPLE_POINT_T);
+      return IA_LN_PT + IA_A1 * Math.exp((IA_B1 - 1) * lth) + IA_A2 * Math.exp((IA_B2 - 1) * lth) + IA_A3 * Math.exp((IA_B3 - 1) * lth);
     }
     default: {
       const tc = t - CELSIUS_ZERO;
@@ -137,11 +138,11 @@ export function dLnIce(code: number, t: number): number {
     case CODE_GOFF_GRATCH:
       return LN10 * (-GG_IA * GG_T0 / (t * t) - GG_IB / (t * LN10) - GG_IC / GG_T0);
     case CODE_IAPWS: {
-      const th = t / TRIPLE_POINT_T;
+      const lth = Math.log(t / TRIPLE_POINT_T);
       return (
-        (IA_A1 * (IA_B1 - 1) * th ** (IA_B1 - 2) +
-          IA_A2 * (IA_B2 - 1) * th ** (IA_B2 - 2) +
-          IA_A3 * (IA_B3 - 1) * th ** (IA_B3 - 2)) /
+        (IA_A1 * (IA_B1 - 1) * Math.exp((IA_B1 - 2) * lth) +
+          IA_A2 * (IA_B2 - 1) * Math.exp((IA_B2 - 2) * lth) +
+          IA_A3 * (IA_B3 - 1) * Math.exp((IA_B3 - 2) * lth)) /
         TRIPLE_POINT_T
       );
     }
