@@ -7,10 +7,13 @@
  * (default /usr/share/eccodes/definitions). The ecCodes version is read from the Debian package
  * database when it is there and written into each header.
  *
- * 2.0.3.table lines are "code abbreviation ABBREVIATION name units" with no delimiter between name
- * and units; units are taken from the right while the words are unit symbols (see UNIT_WORD), and
- * the result is compared with the units in grib1/units.def where that file has the parameter, and
- * differences are printed for review (units.def gives ECMWF's paramId units, which may differ).
+ * WMO table: ecCodes names GRIB1 parameters of table version 3 through its concept files
+ * grib1/shortName.def, name.def and units.def (keys shortName, name, units). Where those define a
+ * parameter by table version 3 and parameter number alone, their values are used, so that the
+ * table agrees with what ecCodes reports; the other codes come from grib1/2.0.3.table, whose lines
+ * are "code abbreviation ABBREVIATION name units" with no delimiter between name and units (units
+ * are taken from the right while the words are unit symbols, see UNIT_WORD). Each row records
+ * which file it came from.
  */
 import { execFileSync } from 'node:child_process';
 import { readFileSync, writeFileSync } from 'node:fs';
@@ -25,6 +28,7 @@ interface Row {
   shortName: string;
   name: string;
   units: string;
+  source?: string;
 }
 
 /** A word that can be part of a units string in 2.0.3.table. */
@@ -98,8 +102,12 @@ function parseEcmwf(text: string): Row[] {
   return rows;
 }
 
-/** Units of table-2-version-3 parameters as grib1/units.def states them. */
-function unitsDef(text: string): Map<number, string> {
+/**
+ * Values of a grib1 concept file for parameters defined by table version 3 and the parameter
+ * number alone (entries with further conditions, such as a level, are skipped); the last wins, as
+ * in ecCodes (checked by test/grib/edition1/tables.test.ts).
+ */
+function concept(text: string): Map<number, string> {
   const map = new Map<number, string>();
   const re = /'([^']*)'\s*=\s*\{\s*table2Version\s*=\s*3\s*;\s*indicatorOfParameter\s*=\s*(\d+)\s*;\s*\}/g;
   for (let m = re.exec(text); m; m = re.exec(text)) map.set(Number(m[2]), m[1]);
@@ -108,7 +116,11 @@ function unitsDef(text: string): Map<number, string> {
 
 function emit(file: string, constName: string, title: string, source: string, version: string, rows: Row[]): void {
   const body = rows
-    .map((r) => `  { number: ${r.number}, shortName: ${JSON.stringify(r.shortName)}, name: ${JSON.stringify(r.name)}, units: ${JSON.stringify(r.units)} },`)
+    .map(
+      (r) =>
+        `  { number: ${r.number}, shortName: ${JSON.stringify(r.shortName)}, name: ${JSON.stringify(r.name)}, units: ${JSON.stringify(r.units)}` +
+        `${r.source === undefined ? '' : `, source: ${JSON.stringify(r.source)}`} },`,
+    )
     .join('\n');
   const text = `/**
  * ${title}
@@ -124,18 +136,24 @@ ${body}
 
 const version = eccodesVersion();
 const wmo = parseWmo(readFileSync(join(DEFS, 'grib1/2.0.3.table'), 'utf8'));
-const check = unitsDef(readFileSync(join(DEFS, 'grib1/units.def'), 'utf8'));
+const shortNames = concept(readFileSync(join(DEFS, 'grib1/shortName.def'), 'utf8'));
+const names = concept(readFileSync(join(DEFS, 'grib1/name.def'), 'utf8'));
+const units = concept(readFileSync(join(DEFS, 'grib1/units.def'), 'utf8'));
 for (const r of wmo) {
-  const u = check.get(r.number);
-  if (u !== undefined && u !== r.units) {
-    process.stderr.write(`note: 2.0.3.table parameter ${r.number}: units "${r.units}", units.def says "${u}"\n`);
+  const sn = shortNames.get(r.number);
+  const nm = names.get(r.number);
+  const un = units.get(r.number);
+  if (sn !== undefined && nm !== undefined && un !== undefined) {
+    Object.assign(r, { shortName: sn, name: nm, units: un, source: 'concepts' });
+  } else {
+    r.source = '2.0.3.table';
   }
 }
 emit(
   'wmo-table2-v3.ts',
   'WMO_GRIB1_TABLE2_V3',
   'WMO FM 92 GRIB edition 1, Code table 2 (parameters), table version 3.',
-  'ecCodes grib1/2.0.3.table',
+  'ecCodes grib1/shortName.def, name.def, units.def (rows marked "concepts") and grib1/2.0.3.table (rows marked "2.0.3.table")',
   version,
   wmo,
 );
