@@ -3,7 +3,7 @@
  * entropy coding): octets 22 (flags), 23 (block size) and 24–25 (reference sample interval)
  * parameterise the decoder; the decoded samples are simple-packing integers.
  */
-import { aecDecode } from '../../../../codecs/aec/index.js';
+import { aecDecode } from '../../../../codecs/index.js';
 import { u16, u8 } from '../bytes.js';
 import { constantField, readScale, scaleIntegers } from './scale.js';
 import { PackingProblem, type DataTemplate } from './types.js';

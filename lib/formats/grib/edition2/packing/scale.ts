@@ -19,10 +19,14 @@ export function scaleFactors(p: ScaleParameters): { bscale: number; dscale: numb
   return { bscale: 2 ** p.binaryScale, dscale: 10 ** -p.decimalScale, ref: p.referenceValue };
 }
 
-/** A field of constant value (bits per value 0): every value is R·10^−D. */
+/**
+ * A field of constant value (bits per value 0, no data): every value is R itself. The reference
+ * decoders (ecCodes, NCEP g2clib) do not apply 10^−D here, and ecCodes writes constant fields
+ * with R equal to the value whatever D says; fixture ll-packings.grib2 has one with D = 2.
+ */
 export function constantField(p: ScaleParameters, count: number): Float64Array {
   const out = new Float64Array(count);
-  out.fill(p.referenceValue * 10 ** -p.decimalScale);
+  out.fill(p.referenceValue);
   return out;
 }
 
