@@ -11,8 +11,8 @@
  * reference sample after the ID (and after the low-entropy selector bit); that block codes J − 1
  * mapped prediction errors.
  *
- * The decoder reads the bit stream MSB first through a left-aligned 32-bit window, refilled
- * byte by byte. The input is copied into a zero-padded buffer so no read leaves it; overruns
+ * The decoder reads the bit stream MSB first from a copy of the input as big-endian 32-bit words
+ * (zero-padded, so no read leaves it): any field of up to 32 bits is one two-word peek. Overruns
  * are detected from the number of bits consumed and reported as truncation.
  */
 import { DecodeError } from '../../errors.js';
@@ -23,8 +23,25 @@ import { signExtend, unmapSigned, unmapUnsigned } from './postprocess.js';
 const ROS = 5;
 /** Zero blocks are counted within segments of 64 blocks. */
 const SEGMENT_BLOCKS = 64;
-/** Bytes of zero padding after the input; more than one block can read between checks. */
-const PAD = 1024;
+/**
+ * Zero words after the input. Between two end-of-stream checks a block reads at most
+ * 64 × (32 + 32) + 5 + 1 + 32 bits (131 words) plus the word after.
+ */
+const PAD_WORDS = 256;
+
+/** The input as big-endian 32-bit words, zero-padded. */
+function toWords(input: Uint8Array): Uint32Array {
+  const len = input.length;
+  const full = len >>> 2;
+  const words = new Uint32Array(full + 1 + PAD_WORDS);
+  for (let i = 0, p = 0; i < full; i++, p += 4) {
+    words[i] = (input[p] << 24) | (input[p + 1] << 16) | (input[p + 2] << 8) | input[p + 3];
+  }
+  let last = 0;
+  for (let p = full * 4, shift = 24; p < len; p++, shift -= 8) last |= input[p] << shift;
+  words[full] = last;
+  return words;
+}
 
 /** Second extension: γ = β(β+1)/2 + δ₂ with β = δ₁ + δ₂. Tables of β and β(β+1)/2 by γ. */
 const SE_TABLE = 91; // γ ≤ 90 ⇔ β ≤ 12
@@ -115,12 +132,12 @@ export function aecDecode(
   const maxValue = n === 32 ? 0xffffffff : 2 ** n - 1;
   const lenBits = len * 8;
   const out = new Uint32Array(totalBlocks * J);
-  const buf = new Uint8Array(len + PAD);
-  buf.set(input);
+  const words = toWords(input);
 
-  let pos = 0; // next byte of buf to load
-  let acc = 0; // window: `held` valid bits, left-aligned, lower bits zero
-  let held = 0;
+  // Bit position: word `wi`, bit `bp` (0 = most significant) of that word. `peek` is the 32
+  // bits from there: (words[wi] << bp) | (words[wi + 1] >>> (32 − bp)), written so bp = 0 works.
+  let wi = 0;
+  let bp = 0;
   let block = 0;
 
   while (block < totalBlocks) {
@@ -131,19 +148,18 @@ export function aecDecode(
       let i = blockStart;
       const ref = preprocess && inInterval === 0;
 
-      while (held <= 23) {
-        acc |= buf[pos++] << (24 - held);
-        held += 8;
-      }
-      const id = acc >>> idShift;
-      acc <<= idLength;
-      held -= idLength;
-
+      let w = (words[wi] << bp) | ((words[wi + 1] >>> 1) >>> (31 - bp));
+      const id = w >>> idShift;
       let lowEntropySecondExtension = false;
+      let used = idLength;
       if (id === 0) {
-        lowEntropySecondExtension = acc < 0; // selector bit: 1 → second extension
-        acc <<= 1;
-        held -= 1;
+        lowEntropySecondExtension = (w << idLength) < 0; // selector bit: 1 → second extension
+        used += 1;
+      }
+      bp += used;
+      if (bp >= 32) {
+        bp -= 32;
+        wi++;
       }
       if (counts !== undefined) {
         if (ref) counts.referenceSamples++;
@@ -155,29 +171,12 @@ export function aecDecode(
       }
       if (ref) {
         // n-bit reference sample
-        if (n <= 24) {
-          while (held <= 23) {
-            acc |= buf[pos++] << (24 - held);
-            held += 8;
-          }
-          out[i++] = acc >>> (32 - n);
-          acc <<= n;
-          held -= n;
-        } else {
-          while (held <= 23) {
-            acc |= buf[pos++] << (24 - held);
-            held += 8;
-          }
-          const hi = acc >>> (48 - n);
-          acc <<= n - 16;
-          held -= n - 16;
-          while (held <= 23) {
-            acc |= buf[pos++] << (24 - held);
-            held += 8;
-          }
-          out[i++] = hi * 65536 + (acc >>> 16);
-          acc <<= 16;
-          held -= 16;
+        w = (words[wi] << bp) | ((words[wi + 1] >>> 1) >>> (31 - bp));
+        out[i++] = w >>> (32 - n);
+        bp += n;
+        if (bp >= 32) {
+          bp -= 32;
+          wi++;
         }
       }
 
@@ -185,20 +184,20 @@ export function aecDecode(
         // Zero-block option: fundamental-sequence count of all-zero blocks.
         let fs = 0;
         for (;;) {
-          while (held <= 23) {
-            acc |= buf[pos++] << (24 - held);
-            held += 8;
-          }
-          if (acc !== 0) break;
-          fs += held;
-          held = 0;
-          if (pos > len) throw truncated(i, sampleCount, 'in a zero-block count', len);
-          if (fs > SEGMENT_BLOCKS) throw malformed(`zero-block count ${fs} exceeds ${SEGMENT_BLOCKS}`, block, pos * 8);
+          w = (words[wi] << bp) | ((words[wi + 1] >>> 1) >>> (31 - bp));
+          if (w !== 0) break;
+          fs += 32;
+          wi++;
+          if (wi * 32 + bp > lenBits) throw truncated(i, sampleCount, 'in a zero-block count', len);
+          if (fs > SEGMENT_BLOCKS) throw malformed(`zero-block count ${fs} exceeds ${SEGMENT_BLOCKS}`, block, wi * 32 + bp);
         }
-        const z = Math.clz32(acc);
+        const z = Math.clz32(w);
         fs += z;
-        acc <<= z + 1;
-        held -= z + 1;
+        bp += z + 1;
+        if (bp >= 32) {
+          bp -= 32;
+          wi++;
+        }
         let zeroBlocks = fs + 1;
         if (zeroBlocks === ROS) {
           if (counts !== undefined) counts.remainderOfSegment++;
@@ -210,7 +209,7 @@ export function aecDecode(
           throw malformed(
             `zero-block run of ${zeroBlocks} blocks exceeds the ${rsi - inInterval} left in the reference sample interval`,
             block,
-            pos * 8 - held,
+            wi * 32 + bp,
           );
         }
         // `out` is zero-initialised: the run needs no writes.
@@ -224,19 +223,19 @@ export function aecDecode(
           while (i < blockEnd) {
             let m = 0;
             for (;;) {
-              while (held <= 23) {
-                acc |= buf[pos++] << (24 - held);
-                held += 8;
-              }
-              if (acc !== 0) break;
-              m += held;
-              held = 0;
-              if (pos > len) throw truncated(i, sampleCount, 'in a second-extension codeword', len);
+              w = (words[wi] << bp) | ((words[wi + 1] >>> 1) >>> (31 - bp));
+              if (w !== 0) break;
+              m += 32;
+              wi++;
+              if (wi * 32 + bp > lenBits) throw truncated(i, sampleCount, 'in a second-extension codeword', len);
             }
-            const z = Math.clz32(acc);
+            const z = Math.clz32(w);
             m += z;
-            acc <<= z + 1;
-            held -= z + 1;
+            bp += z + 1;
+            if (bp >= 32) {
+              bp -= 32;
+              wi++;
+            }
             let beta: number;
             let base: number;
             if (m < SE_TABLE) {
@@ -247,7 +246,7 @@ export function aecDecode(
               while ((beta * (beta + 1)) / 2 > m) beta--;
               while (((beta + 1) * (beta + 2)) / 2 <= m) beta++;
               base = (beta * (beta + 1)) / 2;
-              if (beta > maxValue) throw malformed(`second-extension codeword ${m} is out of range`, block, pos * 8 - held);
+              if (beta > maxValue) throw malformed(`second-extension codeword ${m} is out of range`, block, wi * 32 + bp);
             }
             const second = m - base;
             if (((i - blockStart) & 1) === 0) out[i++] = beta - second;
@@ -255,33 +254,13 @@ export function aecDecode(
           }
         } else if (id === idMax) {
           // No compression: n-bit samples.
-          if (n <= 24) {
-            const shift = 32 - n;
-            for (; i < blockEnd; i++) {
-              while (held <= 23) {
-                acc |= buf[pos++] << (24 - held);
-                held += 8;
-              }
-              out[i] = acc >>> shift;
-              acc <<= n;
-              held -= n;
-            }
-          } else {
-            for (; i < blockEnd; i++) {
-              while (held <= 23) {
-                acc |= buf[pos++] << (24 - held);
-                held += 8;
-              }
-              const hi = acc >>> (48 - n);
-              acc <<= n - 16;
-              held -= n - 16;
-              while (held <= 23) {
-                acc |= buf[pos++] << (24 - held);
-                held += 8;
-              }
-              out[i] = hi * 65536 + (acc >>> 16);
-              acc <<= 16;
-              held -= 16;
+          const shift = 32 - n;
+          for (; i < blockEnd; i++) {
+            out[i] = ((words[wi] << bp) | ((words[wi + 1] >>> 1) >>> (31 - bp))) >>> shift;
+            bp += n;
+            if (bp >= 32) {
+              bp -= 32;
+              wi++;
             }
           }
         } else {
@@ -292,57 +271,38 @@ export function aecDecode(
           const first = i;
           for (; i < blockEnd; i++) {
             let fs = 0;
-            for (;;) {
-              while (held <= 23) {
-                acc |= buf[pos++] << (24 - held);
-                held += 8;
-              }
-              if (acc !== 0) break;
-              fs += held;
-              held = 0;
-              if (pos > len) throw truncated(i, sampleCount, 'in a fundamental-sequence code', len);
+            w = (words[wi] << bp) | ((words[wi + 1] >>> 1) >>> (31 - bp));
+            while (w === 0) {
+              fs += 32;
+              wi++;
+              if (wi * 32 + bp > lenBits) throw truncated(i, sampleCount, 'in a fundamental-sequence code', len);
               if (fs > fsMax) {
-                throw malformed(`split-sample high part ${fs} (k = ${k}) exceeds ${n} bits`, block, pos * 8 - held);
+                throw malformed(`split-sample high part ${fs} (k = ${k}) exceeds ${n} bits`, block, wi * 32 + bp);
               }
+              w = (words[wi] << bp) | ((words[wi + 1] >>> 1) >>> (31 - bp));
             }
-            const z = Math.clz32(acc);
+            const z = Math.clz32(w);
             fs += z;
-            acc <<= z + 1;
-            held -= z + 1;
+            bp += z + 1;
+            if (bp >= 32) {
+              bp -= 32;
+              wi++;
+            }
             if (fs > fsMax) {
-              throw malformed(`split-sample high part ${fs} (k = ${k}) exceeds ${n} bits`, block, pos * 8 - held);
+              throw malformed(`split-sample high part ${fs} (k = ${k}) exceeds ${n} bits`, block, wi * 32 + bp);
             }
             out[i] = fs;
           }
           if (k > 0) {
-            if (k <= 24) {
-              const shift = 32 - k;
-              for (let j = first; j < blockEnd; j++) {
-                while (held <= 23) {
-                  acc |= buf[pos++] << (24 - held);
-                  held += 8;
-                }
-                out[j] = (out[j] << k) | (acc >>> shift);
-                acc <<= k;
-                held -= k;
-              }
-            } else {
-              const scale = 2 ** k;
-              for (let j = first; j < blockEnd; j++) {
-                while (held <= 23) {
-                  acc |= buf[pos++] << (24 - held);
-                  held += 8;
-                }
-                const hi = acc >>> (48 - k);
-                acc <<= k - 16;
-                held -= k - 16;
-                while (held <= 23) {
-                  acc |= buf[pos++] << (24 - held);
-                  held += 8;
-                }
-                out[j] = out[j] * scale + hi * 65536 + (acc >>> 16);
-                acc <<= 16;
-                held -= 16;
+            const shift = 32 - k;
+            for (let j = first; j < blockEnd; j++) {
+              // fs ≤ fsMax < 2^(32−k): the shift cannot lose bits (the int32 sign bit wraps back
+              // to the unsigned value on store).
+              out[j] = (out[j] << k) | (((words[wi] << bp) | ((words[wi + 1] >>> 1) >>> (31 - bp))) >>> shift);
+              bp += k;
+              if (bp >= 32) {
+                bp -= 32;
+                wi++;
               }
             }
           }
@@ -350,14 +310,19 @@ export function aecDecode(
         inInterval += 1;
         block += 1;
       }
-      if (pos * 8 - held > lenBits) {
+      if (wi * 32 + bp > lenBits) {
         throw truncated(blockStart, sampleCount, `in block ${block - 1}`, len);
       }
     }
     if (padRsi) {
-      const drop = held & 7;
-      acc <<= drop;
-      held -= drop;
+      const r = bp & 7;
+      if (r !== 0) {
+        bp += 8 - r;
+        if (bp >= 32) {
+          bp -= 32;
+          wi++;
+        }
+      }
     }
   }
 

@@ -29,7 +29,8 @@ export function unmapUnsigned(values: Uint32Array, count: number, bitsPerSample:
         const up = xmax - x;
         const th = x < up ? x : up;
         if (d <= th << 1) {
-          x = (d & 1) === 0 ? x + (d >>> 1) : x - ((d + 1) >>> 1);
+          // even δ' → +δ'/2, odd δ' → −(δ'+1)/2, without a branch on the parity
+          x += (d >>> 1) ^ -(d & 1);
         } else {
           x = x < up ? d : xmax - d;
         }
