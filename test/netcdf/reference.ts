@@ -54,3 +54,8 @@ export function compareToReference(got: ArrayLike<number>, want: readonly (numbe
   }
   return bad;
 }
+
+/** Any typed array (bigint ones too) as plain numbers. */
+export function numbers(a: ArrayLike<number> | ArrayLike<bigint>): number[] {
+  return Array.from(a as ArrayLike<number | bigint>, Number);
+}
