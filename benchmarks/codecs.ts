@@ -80,7 +80,7 @@ function benchAec(n: number): void {
   const rate = COUNT / ours / 1e3;
   console.log(
     `CCSDS ${String(n).padStart(2)}-bit  ${(stream.length / 1024).toFixed(0).padStart(5)} KiB  ours ${ours.toFixed(1).padStart(6)} ms = ${rate.toFixed(0).padStart(4)} M samples/s` +
-      `   aec -d (process, incl. startup and file I/O) ${theirs.toFixed(1).padStart(6)} ms = ${(COUNT / theirs / 1e3).toFixed(0).padStart(4)} M/s   ratio ours/aec ${(theirs / ours).toFixed(2)}` +
+      `   aec -d (process, incl. startup and file I/O) ${theirs.toFixed(1).padStart(6)} ms = ${(COUNT / theirs / 1e3).toFixed(0).padStart(4)} M/s   speed ours ÷ aec ${(theirs / ours).toFixed(2)}` +
       `${rate >= 50 ? '' : '   (below the 50 M/s target)'}`,
   );
 }
@@ -142,7 +142,7 @@ async function main(): Promise<void> {
     }
     console.log(
       `${img.name.padEnd(12)} ${(bytes.length / 1024).toFixed(0).padStart(5)} KiB  ours ${t.toFixed(1).padStart(6)} ms` +
-        `   ecCodes codes_get_values (whole message) ${img.eccodesMs.toFixed(1).padStart(6)} ms   ratio ours/ecCodes ${(img.eccodesMs / t).toFixed(2)}`,
+        `   ecCodes codes_get_values (whole message) ${img.eccodesMs.toFixed(1).padStart(6)} ms   speed ours ÷ ecCodes ${(img.eccodesMs / t).toFixed(2)}`,
     );
   }
 }
