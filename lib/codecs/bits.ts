@@ -1,6 +1,6 @@
 /**
  * Unpacking of big-endian, MSB-first packed unsigned integers of any width from 1 to 32 bits
- * (GRIB simple packing, GRIB1 second-order groups). Fast paths for 8, 16, 24 and 32 bits.
+ * (GRIB simple packing, GRIB1 second-order groups). Fast paths for 8, 12, 16, 24 and 32 bits.
  */
 
 /**
@@ -33,6 +33,17 @@ export function unpackUnsigned(
       case 8:
         for (let i = 0; i < count; i++) out[i] = bytes[p + i];
         return;
+      case 12: {
+        // two values in every three bytes
+        const pairs = count >>> 1;
+        for (let i = 0; i < 2 * pairs; i += 2, p += 3) {
+          const b1 = bytes[p + 1];
+          out[i] = (bytes[p] << 4) | (b1 >>> 4);
+          out[i + 1] = ((b1 & 0x0f) << 8) | bytes[p + 2];
+        }
+        if ((count & 1) !== 0) out[count - 1] = (bytes[p] << 4) | (bytes[p + 1] >>> 4);
+        return;
+      }
       case 16:
         for (let i = 0; i < count; i++, p += 2) out[i] = (bytes[p] << 8) | bytes[p + 1];
         return;

@@ -77,6 +77,12 @@ describe('unpackUnsigned bounds', () => {
     expect(() => unpackUnsigned(new Uint8Array(8), 0, 33, 1, new Uint32Array(1))).toThrow(/outside 0\.\.32/);
     expect(() => unpackUnsigned(new Uint8Array(8), 0, 8, 4, new Uint32Array(2))).toThrow(/holds 2 values, 4 requested/);
   });
+  it('12-bit fast path with an odd count: nibbles read MSB first (WMO simple packing)', () => {
+    const bytes = new Uint8Array([0xab, 0xcd, 0xef, 0x12, 0x34, 0x56, 0x78, 0x9a]);
+    const out = new Uint32Array(5);
+    unpackUnsigned(bytes, 0, 12, 5, out);
+    expect(Array.from(out)).toEqual([0xabc, 0xdef, 0x123, 0x456, 0x789]);
+  });
   it('0 bits per value writes zeros', () => {
     const out = new Uint32Array([5, 6, 7]);
     unpackUnsigned(new Uint8Array(0), 0, 0, 2, out);
