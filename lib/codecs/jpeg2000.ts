@@ -23,7 +23,10 @@ let openjpeg: Promise<OpenJpegModule> | undefined;
 
 function openjpegModule(): Promise<OpenJpegModule> {
   // print/printErr: keep emscripten's [INFO] lines off stdout.
-  openjpeg ??= factory({ print() {}, printErr() {} });
+  openjpeg ??= factory({ print() {}, printErr() {} }).catch((cause: unknown) => {
+    openjpeg = undefined; // let a later call try again
+    throw new DecodeError(`JPEG 2000: the OpenJPEG WebAssembly module failed to load (${String(cause)})`, { cause });
+  });
   return openjpeg;
 }
 
