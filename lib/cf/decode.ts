@@ -66,6 +66,23 @@ export function decodeValues(
   srcOffset = 0,
   count = src.length - srcOffset,
 ): void {
+  if (src instanceof BigInt64Array || src instanceof BigUint64Array) {
+    const nums = new Float64Array(count);
+    for (let i = 0; i < count; i++) nums[i] = Number(src[srcOffset + i]);
+    decodeNumbers(nums, 0, codec, out, outOffset, count);
+    return;
+  }
+  decodeNumbers(src, srcOffset, codec, out, outOffset, count);
+}
+
+function decodeNumbers(
+  src: Exclude<TypedArray, BigInt64Array | BigUint64Array>,
+  srcOffset: number,
+  codec: ValueCodec,
+  out: Float32Array,
+  outOffset: number,
+  count: number,
+): void {
   const wrap = codec.unsigned.wrap;
   const fill = codec.mask.fill ?? NaN;
   const lo = codec.mask.validMin;
@@ -73,28 +90,42 @@ export function decodeValues(
   const missing = codec.mask.missing;
   const nm = missing.length;
   const m0 = nm > 0 ? missing[0] : NaN;
+  // Steps 3 and 4 in one multiply-add when units are the identity (exact: ×1 + 0).
   const scale = codec.scaleOffset.scale;
   const offset = codec.scaleOffset.offset;
   const us = codec.units.unitScale;
   const uo = codec.units.unitOffset;
   const identityUnits = us === 1 && uo === 0;
-  const big = src instanceof BigInt64Array || src instanceof BigUint64Array;
-  for (let i = 0; i < count; i++) {
-    let x = big ? Number((src as BigInt64Array)[srcOffset + i]) : (src as Float64Array)[srcOffset + i];
+  const end = srcOffset + count;
+  let o = outOffset;
+  if (src instanceof Float32Array && scale === 1 && offset === 0 && wrap === 0 && nm <= 1 && identityUnits) {
+    // Unpacked float32 in SI already: copy, then mask (steps 3 and 4 are the identity).
+    out.set(src.subarray(srcOffset, end), outOffset);
+    const checkRange = lo !== -Infinity || hi !== Infinity;
+    for (let i = outOffset, e = outOffset + count; i < e; i++) {
+      const x = out[i];
+      if (x === fill || x === m0 || (checkRange && (x < lo || x > hi))) out[i] = NaN;
+    }
+    return;
+  }
+  if (wrap === 0 && nm <= 1 && identityUnits) {
+    // The common case, kept tight.
+    for (let i = srcOffset; i < end; i++, o++) {
+      const x = src[i];
+      out[o] = x !== x || x === fill || x === m0 || x < lo || x > hi ? NaN : x * scale + offset;
+    }
+    return;
+  }
+  for (let i = srcOffset; i < end; i++, o++) {
+    let x = src[i];
     if (wrap !== 0 && x < 0) x += wrap; // 1
-    if (x !== x || x === fill || x < lo || x > hi || x === m0) {
-      out[outOffset + i] = NaN; // 2
+    let masked = x !== x || x === fill || x === m0 || x < lo || x > hi; // 2
+    for (let k = 1; k < nm && !masked; k++) if (x === missing[k]) masked = true;
+    if (masked) {
+      out[o] = NaN;
       continue;
     }
-    if (nm > 1) {
-      let hit = false;
-      for (let k = 1; k < nm; k++) if (x === missing[k]) hit = true;
-      if (hit) {
-        out[outOffset + i] = NaN;
-        continue;
-      }
-    }
     const v = x * scale + offset; // 3
-    out[outOffset + i] = identityUnits ? v : v * us + uo; // 4
+    out[o] = identityUnits ? v : v * us + uo; // 4
   }
 }

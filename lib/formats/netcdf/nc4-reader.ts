@@ -2,26 +2,29 @@
  * NetCDF-4 / HDF5 reader on h5wasm's Node build: opens the path without loading the file and
  * reads hyperslabs with `slice`, which inflates only the chunks needed. NetCDF-4 dimensions are
  * HDF5 dimension scales; the netCDF-4 bookkeeping attributes are hidden from the raw attributes.
- * Flat files (root group) only.
+ * Flat files (root group) only. h5wasm is loaded on first use (importing it costs ~600 MB of
+ * RSS), so reading NetCDF3 never pays for it.
  */
-import h5wasm from 'h5wasm/node';
-import { install_local_plugins } from 'h5wasm-plugins';
+import type H5 from 'h5wasm/node';
 import { FormatError, UnsupportedError } from '../../errors.js';
 import type { Attributes, AttrValue, Dimension, Dtype, RawDataset, RawVariable, TypedArray } from '../../grid/types.js';
 import { HDF5_FILTERS } from './hdf5-filters.js';
 
-type H5File = InstanceType<typeof h5wasm.File>;
-type H5Dataset = InstanceType<typeof h5wasm.Dataset>;
+type H5Api = typeof H5;
+type H5File = InstanceType<H5Api['File']>;
+type H5Dataset = InstanceType<H5Api['Dataset']>;
 type H5Metadata = H5Dataset['metadata'];
 
-let readyModule: Promise<unknown> | undefined;
-/** h5wasm's module, ready, with the compression plugins on its search path (once). */
-export function h5wasmReady(): Promise<unknown> {
-  readyModule ??= h5wasm.ready.then((m) => {
-    install_local_plugins(m);
-    return m;
-  });
-  return readyModule;
+let readyApi: Promise<H5Api> | undefined;
+/** h5wasm, ready, with the compression plugins of h5wasm-plugins on its search path (once). */
+export function h5wasmReady(): Promise<H5Api> {
+  readyApi ??= (async () => {
+    const h5wasm = (await import('h5wasm/node')).default;
+    const { install_local_plugins } = await import('h5wasm-plugins');
+    install_local_plugins(await h5wasm.ready);
+    return h5wasm;
+  })();
+  return readyApi;
 }
 
 /** Attributes that are netCDF-4 / HDF5 dimension-scale bookkeeping, not user attributes. */
@@ -112,7 +115,7 @@ function isDimensionScale(d: H5Dataset): boolean {
 
 /** Opens a NetCDF-4 (HDF5) file as a raw dataset (no CF decoding). */
 export async function openNetcdf4Raw(path: string): Promise<RawDataset> {
-  await h5wasmReady();
+  const h5wasm = await h5wasmReady();
   let f: H5File;
   try {
     f = new h5wasm.File(path, 'r');
@@ -120,14 +123,14 @@ export async function openNetcdf4Raw(path: string): Promise<RawDataset> {
     throw new FormatError(`${path}: cannot open as NetCDF-4/HDF5: ${(e as Error).message}`, { file: path, cause: e });
   }
   try {
-    return buildDataset(f, path);
+    return buildDataset(h5wasm, f, path);
   } catch (e) {
     f.close();
     throw e;
   }
 }
 
-function buildDataset(f: H5File, path: string): RawDataset {
+function buildDataset(h5wasm: H5Api, f: H5File, path: string): RawDataset {
   const rootAttrs = attrsOf(f as unknown as Parameters<typeof attrsOf>[0]);
   const classic = f.attrs._nc3_strict !== undefined;
   const datasets: H5Dataset[] = [];
