@@ -3,5 +3,5 @@
  * quicklook maps.
  */
 export type { RasterDtype, RasterProfile, RasterMetadata, EncodeOptions, WrittenRaster } from './geotiff/index.js';
-export { DEFAULT_PROFILE, encodeGeoTiff, writeGeoTiff, overviewLevels } from './geotiff/index.js';
+export { DEFAULT_PROFILE, DEFAULT_DEFLATE_LEVEL, encodeGeoTiff, writeGeoTiff, overviewLevels } from './geotiff/index.js';
 export { rasterLayout, type RasterLayout, type RasterLayoutOptions } from './rasterLayout.js';

@@ -16,7 +16,7 @@ import { chunkGrid, encodeChunks, encodeChunksSync } from './chunks.js';
 import { geoKeysFor, modelTags } from './georef.js';
 import { gdalMetadataXml, gdalNodataText } from './gdalMetadata.js';
 import { asciiBytes, ifdByteLength, writeIfd, type IfdEntry } from './ifd.js';
-import { overviewBand, overviewLevels } from './overviews.js';
+import { overviewBands, overviewLevels } from './overviews.js';
 import type { RasterArray, RasterMetadata, RasterProfile, ResolvedProfile } from './profile.js';
 import { prepareBands, resolveProfile } from './profile.js';
 import {
@@ -97,9 +97,9 @@ function prepare(profile: RasterProfile, bands: readonly ArrayLike<number>[], me
 
   const levels: Prepared['levels'] = [{ width: p.width, height: p.height, bands: typed, overview: false }];
   if (p.cog) {
-    for (const lv of overviewLevels(p.width, p.height, p.blockSize)) {
-      levels.push({ width: lv.width, height: lv.height, overview: true, bands: typed.map((b) => overviewBand(b, p.width, p.height, lv, p)) });
-    }
+    const ovLevels = overviewLevels(p.width, p.height, p.blockSize);
+    const perBand = typed.map((b) => overviewBands(b, p.width, p.height, ovLevels, p));
+    ovLevels.forEach((lv, k) => levels.push({ width: lv.width, height: lv.height, overview: true, bands: perBand.map((o) => o[k]) }));
   }
   return { p, levels, mainExtra, nodataEntry };
 }

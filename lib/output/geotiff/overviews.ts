@@ -44,38 +44,59 @@ function nearest(band: RasterArray, W: number, lv: OverviewLevel, out: RasterArr
   }
 }
 
-function average(band: RasterArray, W: number, H: number, lv: OverviewLevel, p: ResolvedProfile, out: RasterArray): void {
-  const f = lv.factor;
-  const shift = Math.log2(f);
-  const sum = new Float64Array(lv.width);
-  const cnt = new Int32Array(lv.width);
+/**
+ * Block sums and counts of valid values for every level, each level from the one before
+ * (sums and counts add exactly, so level k is the mean over its whole 2^k × 2^k block).
+ */
+function averageLevels(band: RasterArray, W: number, H: number, levels: readonly OverviewLevel[], p: ResolvedProfile): RasterArray[] {
   const nd = p.nodata;
   const hasNd = nd !== undefined && !Number.isNaN(nd);
   const empty = emptyValue(p);
   const round = p.info.kind !== 'float';
-  for (let oy = 0; oy < lv.height; oy++) {
-    sum.fill(0);
-    cnt.fill(0);
-    const yEnd = Math.min(H, (oy + 1) * f);
-    for (let y = oy * f; y < yEnd; y++) {
-      const row = y * W;
-      for (let x = 0; x < W; x++) {
-        const v = band[row + x];
-        if (v !== v || (hasNd && v === nd)) continue;
-        const ox = x >> shift;
-        sum[ox] += v;
-        cnt[ox]++;
+  const out: RasterArray[] = [];
+  let prevSum: Float64Array | undefined;
+  let prevCnt: Uint32Array | undefined;
+  let pw = W;
+  let ph = H;
+  for (const lv of levels) {
+    const sum = new Float64Array(lv.width * lv.height);
+    const cnt = new Uint32Array(lv.width * lv.height);
+    if (prevSum === undefined || prevCnt === undefined) {
+      for (let y = 0; y < H; y++) {
+        const row = y * W;
+        const o = (y >> 1) * lv.width;
+        for (let x = 0; x < W; x++) {
+          const v = band[row + x];
+          if (v !== v || (hasNd && v === nd)) continue;
+          sum[o + (x >> 1)] += v;
+          cnt[o + (x >> 1)]++;
+        }
+      }
+    } else {
+      for (let y = 0; y < ph; y++) {
+        const row = y * pw;
+        const o = (y >> 1) * lv.width;
+        for (let x = 0; x < pw; x++) {
+          sum[o + (x >> 1)] += prevSum[row + x];
+          cnt[o + (x >> 1)] += prevCnt[row + x];
+        }
       }
     }
-    const o = oy * lv.width;
-    for (let ox = 0; ox < lv.width; ox++) {
-      if (cnt[ox] === 0) out[o + ox] = empty;
+    const img = p.info.create(lv.width * lv.height);
+    for (let i = 0; i < img.length; i++) {
+      if (cnt[i] === 0) img[i] = empty;
       else {
-        const m = sum[ox] / cnt[ox];
-        out[o + ox] = round ? Math.sign(m) * Math.round(Math.abs(m)) : m;
+        const m = sum[i] / cnt[i];
+        img[i] = round ? Math.sign(m) * Math.round(Math.abs(m)) : m;
       }
     }
+    out.push(img);
+    prevSum = sum;
+    prevCnt = cnt;
+    pw = lv.width;
+    ph = lv.height;
   }
+  return out;
 }
 
 function mode(band: RasterArray, W: number, H: number, lv: OverviewLevel, p: ResolvedProfile, out: RasterArray): void {
@@ -117,11 +138,13 @@ function mode(band: RasterArray, W: number, H: number, lv: OverviewLevel, p: Res
   }
 }
 
-/** Computes one overview level of one band. */
-export function overviewBand(band: RasterArray, width: number, height: number, lv: OverviewLevel, p: ResolvedProfile): RasterArray {
-  const out = p.info.create(lv.width * lv.height);
-  if (p.overviewResampling === 'nearest') nearest(band, width, lv, out);
-  else if (p.overviewResampling === 'average') average(band, width, height, lv, p, out);
-  else mode(band, width, height, lv, p, out);
-  return out;
+/** Computes every overview level of one band. */
+export function overviewBands(band: RasterArray, width: number, height: number, levels: readonly OverviewLevel[], p: ResolvedProfile): RasterArray[] {
+  if (p.overviewResampling === 'average') return averageLevels(band, width, height, levels, p);
+  return levels.map((lv) => {
+    const out = p.info.create(lv.width * lv.height);
+    if (p.overviewResampling === 'nearest') nearest(band, width, lv, out);
+    else mode(band, width, height, lv, p, out);
+    return out;
+  });
 }

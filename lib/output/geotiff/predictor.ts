@@ -26,18 +26,18 @@ export function floatingPointPredict(samples: Float32Array | Float64Array, rowLe
   const out = new Uint8Array(samples.byteLength);
   if (samples instanceof Float32Array) {
     const words = new Uint32Array(samples.buffer, samples.byteOffset, samples.length);
-    const rowBytes = rowLength * 4;
-    for (let row = 0, w = 0; row < out.length; row += rowBytes, w += rowLength) {
-      // Regroup: byte b (0 = least significant) of sample i goes to plane 3 − b.
-      const p3 = row, p2 = row + rowLength, p1 = row + 2 * rowLength, p0 = row + 3 * rowLength;
-      for (let i = 0; i < rowLength; i++) {
-        const v = words[w + i];
-        out[p3 + i] = v >>> 24;
-        out[p2 + i] = v >>> 16;
-        out[p1 + i] = v >>> 8;
-        out[p0 + i] = v;
+    // Regroup (byte b of sample i goes to plane 3 − b, most significant plane first) and
+    // difference in the same pass: each plane is read from the row's words, and `prev` carries
+    // the last byte across plane boundaries, as the differencing runs over the whole row.
+    for (let w = 0, o = 0; w < words.length; w += rowLength) {
+      let prev = 0;
+      for (let shift = 24; shift >= 0; shift -= 8) {
+        for (let i = w, end = w + rowLength; i < end; i++) {
+          const v = (words[i] >>> shift) & 0xff;
+          out[o++] = v - prev;
+          prev = v;
+        }
       }
-      differenceBytes(out, row, rowBytes);
     }
     return out;
   }

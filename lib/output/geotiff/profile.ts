@@ -20,7 +20,7 @@ export interface RasterProfile {
   transform: readonly [number, number, number, number, number, number];
   nodata?: number;
   compress?: 'deflate' | 'none';
-  /** zlib level 1–9 (default 6). */
+  /** zlib level 0–9 (default 6 for integer types, 3 for floats: DEFAULT_DEFLATE_LEVEL). */
   deflateLevel?: number;
   /**
    * 'auto' (default): none for 8-bit data, horizontal differencing for 16/32-bit integers,
@@ -48,12 +48,17 @@ export interface RasterMetadata {
 /** Defaults applied to every profile; data, not code. */
 export const DEFAULT_PROFILE = {
   compress: 'deflate',
-  deflateLevel: 6,
   predictor: 'auto',
   tiled: true,
   blockSize: 256,
   cog: false,
 } as const satisfies Partial<RasterProfile>;
+
+/**
+ * Default zlib level by kind of data. Masks and integers compress far better at 6; the mantissa
+ * noise of float fields gains ~3 % from level 6 over level 3 at almost twice the time.
+ */
+export const DEFAULT_DEFLATE_LEVEL = { integer: 6, float: 3 } as const;
 
 interface DtypeInfo {
   readonly bytes: number;
@@ -119,7 +124,7 @@ export function resolveProfile(profile: RasterProfile): ResolvedProfile {
   if (compress !== 'deflate' && compress !== 'none') {
     throw new UnsupportedError(`compression ${String(compress)} is not supported`, 'compression', String(compress));
   }
-  const deflateLevel = profile.deflateLevel ?? DEFAULT_PROFILE.deflateLevel;
+  const deflateLevel = profile.deflateLevel ?? (info.kind === 'float' ? DEFAULT_DEFLATE_LEVEL.float : DEFAULT_DEFLATE_LEVEL.integer);
   if (!Number.isInteger(deflateLevel) || deflateLevel < 0 || deflateLevel > 9) {
     throw new ParameterError(`deflateLevel must be an integer 0–9, got ${deflateLevel}`, 'deflateLevel');
   }
