@@ -7,6 +7,7 @@ import { FormatError } from './errors.js';
 import { netcdf3Driver, netcdf4Driver, isHdf5, openNetcdf3Raw, openNetcdf4Raw } from './formats/netcdf/index.js';
 import { nc3Version } from './formats/netcdf/nc3-header.js';
 import type { FormatDriver, OpenOptions } from './formats/registry.js';
+import { gribDriver } from './formats/grib/index.js';
 import type { GridDataset, RawDataset } from './grid/types.js';
 
 /**
@@ -16,7 +17,7 @@ import type { GridDataset, RawDataset } from './grid/types.js';
 export const DRIVERS: readonly FormatDriver[] = [
   netcdf3Driver,
   netcdf4Driver,
-  // gribDriver,
+  gribDriver,
 ];
 
 /** How many leading bytes a sniff sees (HDF5 may put its signature at 512, 1024 or 2048). */
