@@ -5,3 +5,15 @@
 export type { RasterDtype, RasterProfile, RasterMetadata, EncodeOptions, WrittenRaster } from './geotiff/index.js';
 export { DEFAULT_PROFILE, DEFAULT_DEFLATE_LEVEL, encodeGeoTiff, writeGeoTiff, overviewLevels } from './geotiff/index.js';
 export { rasterLayout, type RasterLayout, type RasterLayoutOptions } from './rasterLayout.js';
+export {
+  writeQuicklook,
+  renderQuicklook,
+  quicklookGeometry,
+  GLACIER_RAMP,
+  MASK_COLOURS,
+  NODATA_COLOUR,
+  COAST_COLOUR,
+  rampColour,
+  type QuicklookImage,
+  type QuicklookGeometry,
+} from './quicklook/index.js';
