@@ -100,7 +100,18 @@ export async function runMaskJob(options: MaskJobOptions): Promise<MaskJobResult
 }
 
 function pickTemperature(ds: GridDataset, name: string | undefined): Field {
-  if (name === undefined) return selectTemperature(ds);
+  if (name === undefined) {
+    const flat = ds.fields.filter((f) => f.quantity === 'air_temperature' && f.levelsPa.length === 0);
+    if (flat.length > 0 && !ds.fields.some((f) => f.quantity === 'air_temperature' && f.levelsPa.length > 0)) {
+      throw new MissingQuantityError(
+        `${ds.path}: air temperature ${flat.map((f) => f.name).join(', ')} is not on pressure levels (no vertical axis in Pa, hPa or mbar)`,
+        'pressure levels',
+        flat.map((f) => f.name),
+        { file: ds.path, variable: flat[0].name },
+      );
+    }
+    return selectTemperature(ds);
+  }
   const f = ds.fields.find((x) => x.name === name);
   if (f === undefined) {
     const found = ds.fields.map((x) => x.name);
