@@ -1,12 +1,12 @@
 /**
- * Grid coordinates against ecCodes (reference.json: codes_get_array 'latitudes'/'longitudes', in
+ * Grid coordinates against ecCodes (reference.json.gz: codes_get_array 'latitudes'/'longitudes', in
  * the message's scanning order): after frostgrid reorders the points (rows west → east, rows in
  * the message's j order), point k's coordinates must equal ecCodes' coordinates of the message
  * point it came from.
  */
 import { describe, expect, it } from 'vitest';
-import { buildGrid, gridLonLat, readGribIndex } from '../../lib/formats/grib/index.js';
-import { REFERENCE, fixture } from './reference.js';
+import { buildGrid, gridLonLat } from '../../lib/formats/grib/index.js';
+import { REFERENCE, fixtureIndex } from './reference.js';
 
 const files = Object.keys(REFERENCE).filter((f) => !f.startsWith('bad-'));
 
@@ -17,7 +17,7 @@ describe.each(files)('%s: grid coordinates against ecCodes', (file) => {
   const ref = REFERENCE[file];
   it.each(ref.messages.map((m, k) => [k, m] as const))('field %i', async (k, m) => {
     if (!m.latitudes || !m.longitudes) return;
-    const index = await readGribIndex(fixture(file));
+    const index = await fixtureIndex(file);
     const { grid, order } = buildGrid(index.fields[k].grid, file);
     if (grid.kind === 'rotated_ll') return; // rotated coordinates: see rotated.test.ts
     expect(grid.npoints).toBe(m.latitudes.length);

@@ -1,8 +1,9 @@
 /**
  * The values ecCodes (python3-eccodes 2.28, codes_get_values / codes_get_array) reports for the
- * committed fixtures, recorded by data-samples/fixtures/grib/make_fixtures.py in reference.json.
+ * committed fixtures, recorded by data-samples/fixtures/grib/make_fixtures.py in reference.json.gz.
  */
 import { readFileSync } from 'node:fs';
+import { gunzipSync } from 'node:zlib';
 import { dirname, join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 
@@ -57,9 +58,10 @@ export interface ReferenceMessage {
 export interface ReferenceFile {
   doc: string;
   messages: ReferenceMessage[];
+  bad?: BadFixture;
 }
 
-export const REFERENCE: Record<string, ReferenceFile> = JSON.parse(readFileSync(join(FIXTURES, 'reference.json'), 'utf8'));
+export const REFERENCE: Record<string, ReferenceFile> = JSON.parse(gunzipSync(readFileSync(join(FIXTURES, 'reference.json.gz'))).toString('utf8'));
 
 export const fixture = (name: string) => join(FIXTURES, name);
 
@@ -91,4 +93,23 @@ export function firstMismatch(got: ArrayLike<number>, want: readonly (number | n
     if (!(Math.abs(g - w) <= rel * Math.abs(w) + floor)) return k;
   }
   return -1;
+}
+
+import { readGribIndex, type GribIndex } from '../../lib/formats/grib/index.js';
+
+const indexes = new Map<string, Promise<GribIndex>>();
+/** The index of a fixture, read once per test file. */
+export function fixtureIndex(name: string): Promise<GribIndex> {
+  let p = indexes.get(name);
+  if (!p) indexes.set(name, (p = readGribIndex(fixture(name))));
+  return p;
+}
+
+export interface BadFixture {
+  fault: string;
+  brokenMessage: number;
+  brokenOffset: number;
+  brokenLength: number;
+  goodMessages: number[];
+  goodValues: (number | null)[];
 }

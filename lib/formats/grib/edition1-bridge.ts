@@ -1,8 +1,8 @@
 /**
- * The GRIB edition 1 decoder (lib/formats/grib/edition1, written separately) is loaded on first
- * use, so the GRIB2 parts work on their own: its parser and parameter tables are reached through
- * this module once `loadEdition1()` has resolved.
+ * The GRIB edition 1 decoder (lib/formats/grib/edition1, written separately) as the shared parts
+ * use it: its message parser and its parameter tables.
  */
+import { describeGrib1Parameter, parseGrib1Message } from './edition1/index.js';
 import type { GribFieldInfo, GribMessageLocation, GribParameterDescription } from './types.js';
 
 export interface Edition1Module {
@@ -10,23 +10,14 @@ export interface Edition1Module {
   describeGrib1Parameter(id: { table: number; number: number; centre: number }): GribParameterDescription | undefined;
 }
 
-let loaded: Edition1Module | undefined;
-let loading: Promise<Edition1Module | undefined> | undefined;
+const module1: Edition1Module = { parseGrib1Message, describeGrib1Parameter };
 
-/** Loads the edition 1 decoder; resolves to undefined when it is not there. */
+/** The edition 1 decoder (kept async for callers written when it loaded lazily). */
 export function loadEdition1(): Promise<Edition1Module | undefined> {
-  const spec = './edition1/index.js';
-  loading ??= (import(spec) as Promise<Partial<Edition1Module>>).then(
-    (m) => {
-      if (typeof m.parseGrib1Message === 'function' && typeof m.describeGrib1Parameter === 'function') loaded = m as Edition1Module;
-      return loaded;
-    },
-    () => undefined,
-  );
-  return loading;
+  return Promise.resolve(module1);
 }
 
-/** The edition 1 decoder if loadEdition1() has found it. */
+/** The edition 1 decoder. */
 export function edition1(): Edition1Module | undefined {
-  return loaded;
+  return module1;
 }
