@@ -11,7 +11,7 @@ export const CP_DRY_AIR = 1004;
 /**
  * Ratio of the molar masses of water and dry air, M_w/M_d (dimensionless), rounded to 0.622 as in
  * [Schumann1996]. One constant for the whole core: it enters the mixing-line slope G and every
- * q ↔ e and r ↔ e conversion. The unrounded value 18.015268/28.96546 = 0.6219569 [IAPWS95, ISA]
+ * q ↔ e and r ↔ e conversion. The unrounded value 18.015268/28.96546 = 0.6219569 ([IAPWS95] molar mass of water, [CIPM2007] of dry air)
  * differs by 7e-5 relative (check-values §2), below the spread between saturation formulations.
  */
 export const EPSILON = 0.622;
