@@ -3,7 +3,7 @@
  * predictor and compressing each chunk. Chunks are ordered band by band, and row-major within a
  * band, as TIFF's band-separate layout stores them (TIFF 6.0 §15, PlanarConfiguration = 2).
  */
-import { deflate as deflateCb, deflateSync } from 'node:zlib';
+import { constants as zlibConstants, deflate as deflateCb, deflateSync, type ZlibOptions } from 'node:zlib';
 import { promisify } from 'node:util';
 import type { RasterArray, ResolvedProfile } from './profile.js';
 import { applyPredictor } from './predictor.js';
@@ -54,6 +54,10 @@ export function extractChunk(band: RasterArray, g: ChunkGrid, cx: number, cy: nu
   return tile;
 }
 
+function zlibOptions(p: ResolvedProfile): ZlibOptions {
+  return p.runLength ? { level: 6, strategy: zlibConstants.Z_RLE } : { level: p.deflateLevel };
+}
+
 function encodeRaw(band: RasterArray, g: ChunkGrid, cx: number, cy: number, p: ResolvedProfile): Uint8Array {
   const tile = extractChunk(band, g, cx, cy, p);
   return applyPredictor(tile, g.chunkWidth, p.predictor);
@@ -62,11 +66,12 @@ function encodeRaw(band: RasterArray, g: ChunkGrid, cx: number, cy: number, p: R
 /** Encodes every chunk of every band, synchronously. */
 export function encodeChunksSync(bands: readonly RasterArray[], g: ChunkGrid, p: ResolvedProfile): Uint8Array[] {
   const out: Uint8Array[] = [];
+  const opts = zlibOptions(p);
   for (const band of bands) {
     for (let cy = 0; cy < g.down; cy++) {
       for (let cx = 0; cx < g.across; cx++) {
         const raw = encodeRaw(band, g, cx, cy, p);
-        out.push(p.compress === 'deflate' ? deflateSync(raw, { level: p.deflateLevel }) : raw);
+        out.push(p.compress === 'deflate' ? deflateSync(raw, opts) : raw);
       }
     }
   }
@@ -78,18 +83,20 @@ export function encodeChunksSync(bands: readonly RasterArray[], g: ChunkGrid, p:
  * chunks are pending at a time so memory stays bounded.
  */
 export async function encodeChunks(bands: readonly RasterArray[], g: ChunkGrid, p: ResolvedProfile, inFlight = 16): Promise<Uint8Array[]> {
-  if (p.compress !== 'deflate') return encodeChunksSync(bands, g, p);
+  // Uncompressed and run-length chunks are cheaper to encode than to hand to the thread pool.
+  if (p.compress !== 'deflate' || p.runLength) return encodeChunksSync(bands, g, p);
   const perBand = g.across * g.down;
   const total = perBand * bands.length;
   const out = new Array<Uint8Array>(total);
   let next = 0;
+  const opts = zlibOptions(p);
   const worker = async (): Promise<void> => {
     while (next < total) {
       const i = next++;
       const b = Math.floor(i / perBand);
       const k = i % perBand;
       const raw = encodeRaw(bands[b], g, k % g.across, Math.floor(k / g.across), p);
-      out[i] = await deflateAsync(raw, { level: p.deflateLevel });
+      out[i] = await deflateAsync(raw, opts);
     }
   };
   await Promise.all(Array.from({ length: Math.min(inFlight, total) }, worker));

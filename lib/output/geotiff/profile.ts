@@ -20,7 +20,7 @@ export interface RasterProfile {
   transform: readonly [number, number, number, number, number, number];
   nodata?: number;
   compress?: 'deflate' | 'none';
-  /** zlib level 0–9 (default 6 for integer types, 3 for floats: DEFAULT_DEFLATE_LEVEL). */
+  /** zlib level 0–9 (default: see DEFAULT_DEFLATE_LEVEL). */
   deflateLevel?: number;
   /**
    * 'auto' (default): none for 8-bit data, horizontal differencing for 16/32-bit integers,
@@ -55,10 +55,15 @@ export const DEFAULT_PROFILE = {
 } as const satisfies Partial<RasterProfile>;
 
 /**
- * Default zlib level by kind of data. Masks and integers compress far better at 6; the mantissa
- * noise of float fields gains ~3 % from level 6 over level 3 at almost twice the time.
+ * Default zlib settings by kind of data, used when the profile gives no deflateLevel.
+ * - 8-bit data (masks, classes): zlib's run-length strategy (Z_RLE), about four times faster than
+ *   level 6 for ~10 % more bytes on mask rasters;
+ * - wider integers: level 6;
+ * - floats: level 3 — the mantissa noise of float fields gains ~3 % from level 6 at almost
+ *   twice the time.
+ * An explicit deflateLevel always uses zlib's default strategy at that level.
  */
-export const DEFAULT_DEFLATE_LEVEL = { integer: 6, float: 3 } as const;
+export const DEFAULT_DEFLATE_LEVEL = { integer8: 'rle', integer: 6, float: 3 } as const;
 
 interface DtypeInfo {
   readonly bytes: number;
@@ -90,6 +95,8 @@ export interface ResolvedProfile {
   readonly nodata: number | undefined;
   readonly compress: 'deflate' | 'none';
   readonly deflateLevel: number;
+  /** zlib run-length strategy (default for 8-bit data). */
+  readonly runLength: boolean;
   readonly predictor: 'none' | 'horizontal' | 'float';
   readonly tiled: boolean;
   readonly blockSize: number;
@@ -124,6 +131,7 @@ export function resolveProfile(profile: RasterProfile): ResolvedProfile {
   if (compress !== 'deflate' && compress !== 'none') {
     throw new UnsupportedError(`compression ${String(compress)} is not supported`, 'compression', String(compress));
   }
+  const runLength = profile.deflateLevel === undefined && info.bytes === 1 && DEFAULT_DEFLATE_LEVEL.integer8 === 'rle';
   const deflateLevel = profile.deflateLevel ?? (info.kind === 'float' ? DEFAULT_DEFLATE_LEVEL.float : DEFAULT_DEFLATE_LEVEL.integer);
   if (!Number.isInteger(deflateLevel) || deflateLevel < 0 || deflateLevel > 9) {
     throw new ParameterError(`deflateLevel must be an integer 0–9, got ${deflateLevel}`, 'deflateLevel');
@@ -173,6 +181,7 @@ export function resolveProfile(profile: RasterProfile): ResolvedProfile {
     nodata,
     compress,
     deflateLevel,
+    runLength,
     predictor,
     tiled,
     blockSize,
