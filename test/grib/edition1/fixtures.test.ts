@@ -49,7 +49,8 @@ describe('GRIB1 fixtures against ecCodes', () => {
     expect(info.parameter).toEqual({ edition: 1, table: k.table2Version, number: k.indicatorOfParameter, centre: k.centre });
     expect(info.level.code).toBe(k.indicatorOfTypeOfLevel);
     expect(info.level.type).toBe(k.typeOfLevel === 'isobaricInhPa' ? 'isobaric' : 'other');
-    expect(info.level.value).toBe((k.level as number) * 100);
+    // Isobaric levels (Code table 3, type 100) are hPa in the message and Pa in ours.
+    expect(info.level.value).toBe(k.indicatorOfTypeOfLevel === 100 ? (k.level as number) * 100 : k.level);
     expect(info.referenceTime.iso).toBe(isoOf(k.dataDate as number, k.dataTime as number));
     expect(info.stepHours).toBe(k.endStep);
     expect(info.validTime.iso).toBe(isoOf(k.validityDate as number, k.validityTime as number));
