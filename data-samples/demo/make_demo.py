@@ -90,10 +90,11 @@ def geopotential(p_pa, time_index, steps=400):
 
 PATCHES = [
     # name, lat0, lon0, dlat per step, dlon per step, radius deg, peak RHi %, levels hPa
-    ("A", 50.0, 40.0, 0.0, 6.0, 9.0, 130.0, (250.0, 300.0)),
-    ("B", -45.0, 200.0, -2.0, 5.0, 8.0, 124.0, (200.0, 250.0)),
+    # (radius: great-circle scale; the bump is Gaussian with sigma = 0.8 radius)
+    ("A", 50.0, 40.0, 0.0, 6.0, 12.0, 130.0, (250.0, 300.0)),
+    ("B", -45.0, 200.0, -2.0, 5.0, 10.0, 124.0, (200.0, 250.0)),
     ("C", 5.0, 300.0, 0.0, 0.0, 10.0, 122.0, (350.0,)),
-    ("D", 75.0, 150.0, 0.0, 8.0, 7.0, 118.0, (300.0,)),
+    ("D", 75.0, 150.0, 0.0, 8.0, 9.0, 118.0, (300.0,)),
 ]
 
 
@@ -115,7 +116,7 @@ def rhi_percent(level_hpa, time_index, rng):
         if level_hpa not in levels:
             continue
         d = great_circle_deg(lat0 + dlat * time_index, lon0 + dlon * time_index)
-        bump = np.exp(-0.5 * (d / (0.5 * radius)) ** 2)
+        bump = np.exp(-0.5 * (d / (0.8 * radius)) ** 2)
         rhi = rhi + (peak - rhi) * bump
     return np.clip(rhi, 1.0, None)
 
