@@ -40,6 +40,12 @@ export const TRIPLE_POINT_T = 273.16;
 /** Triple point of water: pressure, Pa [IAPWS-R14-08]. */
 export const TRIPLE_POINT_P = 611.657;
 
+/** Critical temperature of water, K [IAPWS-SAT92] [IAPWS95]. */
+export const WATER_CRITICAL_T = 647.096;
+
+/** Critical pressure of water, Pa [IAPWS-SAT92] [IAPWS95]. */
+export const WATER_CRITICAL_P = 22.064e6;
+
 /** 0 °C in kelvin (exact by definition of the Celsius scale). */
 export const CELSIUS_ZERO = 273.15;
 

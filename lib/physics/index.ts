@@ -19,7 +19,6 @@ export {
   saturationPressureWaterArray,
 } from './saturation.js';
 export type { SaturationFormulation, SaturationFormulationInfo, SaturationPhaseInfo, SaturationPhase, FloatArray } from './saturation.js';
-export { WATER_CRITICAL_T, WATER_CRITICAL_P } from './saturation-formulas.js';
 export * from './humidity.js';
 export * from './fuels.js';
 export {

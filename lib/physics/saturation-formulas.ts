@@ -9,7 +9,7 @@
  * @packageDocumentation
  */
 
-import { CELSIUS_ZERO, TRIPLE_POINT_P, TRIPLE_POINT_T } from './constants.js';
+import { CELSIUS_ZERO, TRIPLE_POINT_P, TRIPLE_POINT_T, WATER_CRITICAL_P, WATER_CRITICAL_T } from './constants.js';
 
 /** Integer codes of the formulations, in the order of SATURATION_FORMULATIONS. */
 export const CODE_MURPHY_KOOP = 0;
@@ -84,10 +84,6 @@ const IA_B3 = 1.70333333;
 const IA_LN_PT = Math.log(TRIPLE_POINT_P);
 // Liquid–vapour, auxiliary equation: ln(p/pc) = (Tc/T)(a1 τ + a2 τ^1.5 + a3 τ³ + a4 τ^3.5 + a5 τ⁴ + a6 τ^7.5),
 //   τ = 1 − T/Tc.
-/** Critical temperature of water, K [IAPWS-SAT92]. */
-export const WATER_CRITICAL_T = 647.096;
-/** Critical pressure of water, Pa [IAPWS-SAT92]. */
-export const WATER_CRITICAL_P = 22.064e6;
 const IW_A1 = -7.85951783;
 const IW_A2 = 1.84408259;
 const IW_A3 = -11.7866497;

@@ -49,7 +49,15 @@ export type SaturationPhase = 'ice' | 'water';
  * were fitted above 0 °C are extrapolated down to 163.15 K (−110 °C), which covers every threshold and
  * critical temperature of the criterion (T_LC ≥ ~195 K at G ≥ 0.1 Pa/K).
  */
-const INFO: Readonly<Record<SaturationFormulation, SaturationFormulationInfo>> = Object.freeze({
+function deepFreeze<T>(o: T): T {
+  if (o !== null && typeof o === 'object') {
+    for (const v of Object.values(o)) deepFreeze(v);
+    Object.freeze(o);
+  }
+  return o;
+}
+
+const INFO: Readonly<Record<SaturationFormulation, SaturationFormulationInfo>> = deepFreeze({
   'murphy-koop': {
     name: 'murphy-koop',
     ice: { validK: [110, 273.16], extrapolationK: [100, 330], source: 'MurphyKoop2005 eq. (7), valid T > 110 K' },
@@ -58,7 +66,7 @@ const INFO: Readonly<Record<SaturationFormulation, SaturationFormulationInfo>> =
   sonntag: {
     name: 'sonntag',
     ice: { validK: [173.15, 273.16], extrapolationK: [100, 330], source: 'Sonntag1994 (coefficients in K, Pa from Helten1999); range −100…0.01 °C from memory' },
-    water: { validK: [273.15, 373.15], extrapolationK: [163.15, 373.15], source: 'Sonntag1994; supercooled liquid is an extrapolation (MurphyKoop2005 §5)' },
+    water: { validK: [273.15, 373.15], extrapolationK: [163.15, 373.15], source: 'Sonntag1994; supercooled liquid is an extrapolation (MurphyKoop2005, abstract)' },
   },
   'goff-gratch': {
     name: 'goff-gratch',

@@ -176,7 +176,7 @@ describe('supercooled water', () => {
 
   it('every liquid formulation serves down to 200 K, and only Murphy–Koop is valid there (issue §1)', () => {
     for (const f of SATURATION_FORMULATIONS) {
-      // supercooled liquid is metastable with respect to ice, so e_w > e_i (MurphyKoop2005 §1)
+      // supercooled liquid is metastable with respect to ice, so e_w > e_i (thermodynamics; MurphyKoop2005)
       expect(saturationPressureWater(200, f)).toBeGreaterThan(saturationPressureIce(200, f));
       expect(isExtrapolated(f, 'water', 200, 260)).toBe(f !== 'murphy-koop');
     }
@@ -203,6 +203,13 @@ describe('ranges, errors and array forms', () => {
   });
   it('NaN in, NaN out (scalar)', () => {
     expect(saturationPressureIce(NaN)).toBeNaN();
+  });
+  it('info is immutable', () => {
+    const info = saturationFormulationInfo('sonntag');
+    expect(Object.isFrozen(info.water.validK)).toBe(true);
+    expect(() => {
+      (info.water as unknown as { validK: number[] }).validK = [0, 1];
+    }).toThrow(TypeError);
   });
   it('info lists validity inside extrapolation for every formulation, and isExtrapolated follows validK', () => {
     for (const f of SATURATION_FORMULATIONS) {
