@@ -185,6 +185,34 @@ export const IFS_T_ICE = 250.16;
 /** Temperature range over which frostgrid evaluates the IFS forms, K (project choice). */
 export const IFS_RANGE_K: readonly [number, number] = [123, 373.15];
 
+function checkIfsRange(tK: number, what: string): void {
+  if (!(tK >= IFS_RANGE_K[0] && tK <= IFS_RANGE_K[1])) {
+    throw new RangeError(`temperature ${tK} K is outside the range ${IFS_RANGE_K[0]}–${IFS_RANGE_K[1]} K of the ${what}`);
+  }
+}
+
+/**
+ * ECMWF IFS Tetens saturation vapour pressure over liquid water.
+ * @param tK - temperature, K (123–373.15 K)
+ * @returns e = 611.21 Pa exp(17.502 (T − 273.16)/(T − 32.19 K)), Pa [IFS-CY47R3 Part IV ch. 12]
+ */
+export function saturationPressureEcmwfWater(tK: number): number {
+  if (Number.isNaN(tK)) return NaN;
+  checkIfsRange(tK, 'IFS water form');
+  return IFS_ES0 * Math.exp((IFS_A3_WATER * (tK - TRIPLE_POINT_T)) / (tK - IFS_A4_WATER));
+}
+
+/**
+ * ECMWF IFS Tetens saturation vapour pressure over ice.
+ * @param tK - temperature, K (123–373.15 K)
+ * @returns e = 611.21 Pa exp(22.587 (T − 273.16)/(T + 0.7 K)), Pa [IFS-CY47R3 Part IV ch. 12]
+ */
+export function saturationPressureEcmwfIce(tK: number): number {
+  if (Number.isNaN(tK)) return NaN;
+  checkIfsRange(tK, 'IFS ice form');
+  return IFS_ES0 * Math.exp((IFS_A3_ICE * (tK - TRIPLE_POINT_T)) / (tK - IFS_A4_ICE));
+}
+
 function ifsMixed(t: number): number {
   if (t >= TRIPLE_POINT_T) return IFS_ES0 * Math.exp((IFS_A3_WATER * (t - TRIPLE_POINT_T)) / (t - IFS_A4_WATER));
   const ei = IFS_ES0 * Math.exp((IFS_A3_ICE * (t - TRIPLE_POINT_T)) / (t - IFS_A4_ICE));
@@ -208,9 +236,7 @@ function ifsMixed(t: number): number {
  */
 export function saturationPressureEcmwfMixed(tK: number): number {
   if (Number.isNaN(tK)) return NaN;
-  if (!(tK >= IFS_RANGE_K[0] && tK <= IFS_RANGE_K[1])) {
-    throw new RangeError(`temperature ${tK} K is outside the range ${IFS_RANGE_K[0]}–${IFS_RANGE_K[1]} K of the ecmwf-mixed convention`);
-  }
+  checkIfsRange(tK, 'ecmwf-mixed convention');
   return ifsMixed(tK);
 }
 

@@ -9,7 +9,9 @@ import {
   frostPointFromVapourPressureArray,
   mixingRatioFromVapourPressure,
   mixingRatioFromVapourPressureArray,
+  saturationPressureEcmwfIce,
   saturationPressureEcmwfMixed,
+  saturationPressureEcmwfWater,
   saturationPressureForConvention,
   saturationPressureIce,
   saturationPressureWater,
@@ -132,6 +134,24 @@ describe('ECMWF IFS mixed-phase saturation (check-values §2.1)', () => {
   it.each([...computed, ...ekm])('e_sat,mixed($input K) = $expected Pa ($source)', ({ input, expected, tol }) => {
     expect(relErr(saturationPressureEcmwfMixed(input), expected)).toBeLessThanOrEqual(tol);
     expect(relErr(saturationPressureForConvention(input, 'ecmwf-mixed', 'sonntag'), expected)).toBeLessThanOrEqual(tol);
+  });
+  // columns e_sat,w IFS, e_sat,i IFS and e_mixed/e_sat,i of the §2.1 table (C; 7–8 printed digits)
+  const columns = [
+    [273.16, 611.21, 611.21, 1.0], [270.0, 484.38277, 469.54898, 1.023507], [265.0, 330.95909, 305.4432, 1.034777],
+    [260.0, 222.38162, 195.44141, 1.02523], [255.0, 146.78225, 122.89071, 1.008609], [250.16, 96.4134, 77.05816, 1.0],
+    [245.0, 60.30984, 45.91146, 1.0], [230.0, 13.4193, 8.93344, 1.0],
+  ].map(([tK, ew, ei, ratio]) => ({ input: tK, expected: { ew, ei, ratio }, tol: 1e-6, source: 'check-values §2.1 table (C), IFS CY47R3 Part IV ch. 12 Tetens forms' }));
+  it.each(columns)('IFS water, ice and mixed/ice ratio at $input K ($source)', ({ input, expected, tol }) => {
+    expect(relErr(saturationPressureEcmwfWater(input), expected.ew)).toBeLessThanOrEqual(tol);
+    expect(relErr(saturationPressureEcmwfIce(input), expected.ei)).toBeLessThanOrEqual(tol);
+    expect(relErr(saturationPressureEcmwfMixed(input) / saturationPressureEcmwfIce(input), expected.ratio)).toBeLessThanOrEqual(tol);
+  });
+  it('earthkit-meteo water and ice columns at 233.16, 253.16, 263.16 K (check-values §2.1, F)', () => {
+    for (const [t, ew, ei] of [[233.16, 18.763915, 12.834073], [253.16, 125.378123, 103.126444], [263.16, 286.483187, 259.671784]]) {
+      expect(relErr(saturationPressureEcmwfWater(t), ew)).toBeLessThan(5e-8);
+      expect(relErr(saturationPressureEcmwfIce(t), ei)).toBeLessThan(5e-8);
+    }
+    expect(() => saturationPressureEcmwfIce(20)).toThrow(/outside the range 123–373.15 K of the IFS ice form/);
   });
   it('is continuous at 250.16 K and 273.16 K (α = 0 and 1; IFS definition)', () => {
     for (const t of [250.16, 273.16]) {
