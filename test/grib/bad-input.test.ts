@@ -13,7 +13,7 @@ const bad = Object.entries(REFERENCE).filter(([name]) => name.startsWith('bad-')
 /** When the damage shows: while indexing, or only when the field is decoded. */
 const AT_DECODE = new Set(['bad-bitmap-mismatch.grib2']);
 
-const KIND: Record<string, typeof FrostgridError> = {
+const KIND: Record<string, abstract new (...args: never[]) => FrostgridError> = {
   'bad-truncated.grib2': FormatError,
   'bad-past-end.grib2': FormatError,
   'bad-unknown-template.grib2': UnsupportedError,

@@ -66,3 +66,43 @@ describe('gribDriver', () => {
     }
   });
 });
+
+describe('GRIB datasets: parameters and conventions', () => {
+  it('lists an unknown parameter by its numbers instead of dropping it', async () => {
+    const { mkdtempSync, writeFileSync } = await import('node:fs');
+    const { tmpdir } = await import('node:os');
+    const { join } = await import('node:path');
+    const bytes = Uint8Array.from(readFileSync(fixture(FILE)).subarray(0, ref[0].totalLength));
+    // Section 4 starts after sections 0 (16), 1 and 3; octet 11 is the parameter number.
+    let pos = 16;
+    while (bytes[pos + 4] !== 4) pos += (bytes[pos] << 24) | (bytes[pos + 1] << 16) | (bytes[pos + 2] << 8) | bytes[pos + 3];
+    bytes[pos + 10] = 250;
+    const path = join(mkdtempSync(join(tmpdir(), 'frostgrid-grib-')), 'unknown-parameter.grib2');
+    writeFileSync(path, bytes);
+    const ds = await gribDriver.open(path, {});
+    try {
+      expect(ds.fields.map((f) => f.name)).toEqual(['p0.0.250']);
+      expect(ds.fields[0].quantity).toBeUndefined();
+      expect(ds.fields[0].longName).toContain('discipline 0 category 0 number 250');
+      expect(ds.notes.some((n) => n.includes('unknown parameter') && n.includes('number 250'))).toBe(true);
+    } finally {
+      await ds.close();
+    }
+  });
+
+  it('states the phase of relative humidity the parameter gives (0/1/94 ice; ECMWF GRIB1 r mixed)', async () => {
+    const a = await gribDriver.open(fixture('ll-bitmap.grib2'), {});
+    const b = await gribDriver.open(fixture('mixed.grib2'), {});
+    try {
+      expect(a.fields[0].rhConvention).toEqual({ convention: 'ice', source: 'GRIB2 parameter 0/1/94' });
+      expect(a.fields[0].units).toBe('1');
+      expect(a.fields[0].encoding.unitScale).toBe(0.01);
+      const r = b.fields.find((f) => f.name === 'r')!;
+      expect(r.rhConvention?.convention).toBe('ecmwf-mixed');
+      expect(b.format).toBe('grib-mixed');
+    } finally {
+      await a.close();
+      await b.close();
+    }
+  });
+});
