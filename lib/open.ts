@@ -11,8 +11,7 @@ import { gribDriver } from './formats/grib/index.js';
 import type { GridDataset, RawDataset } from './grid/types.js';
 
 /**
- * Format drivers, tried in order. ── DRIVER LIST ──
- * The GRIB driver goes here: `import { gribDriver } from './formats/grib/index.js'` and add it.
+ * Format drivers, tried in order. ── DRIVER LIST ── (add new formats here)
  */
 export const DRIVERS: readonly FormatDriver[] = [
   netcdf3Driver,

@@ -99,3 +99,30 @@ describe('hyperslabs of record variables read only the boxes asked for', () => {
     }
   });
 });
+
+describe('numrecs = STREAMING (0xFFFFFFFF): records are counted from the file size', () => {
+  // The NetCDF file format specification allows it; netCDF-C 4.9's ncdump does not count them
+  // (it reports 4294967295 records), so the oracle is nc3_classic.nc itself, whose bytes are
+  // these with numrecs = 2, and netCDF4-python's values for it.
+  it('nc3_classic.nc with numrecs patched reads the same two records', async () => {
+    const { mkdtempSync, writeFileSync, rmSync } = await import('node:fs');
+    const { tmpdir } = await import('node:os');
+    const dir = mkdtempSync(`${tmpdir()}/frostgrid-stream-`);
+    try {
+      const bytes = new Uint8Array(readFileSync(FIXTURES + 'nc3_classic.nc'));
+      expect(Array.from(bytes.subarray(4, 8))).toEqual([0, 0, 0, 2]);
+      bytes.set([0xff, 0xff, 0xff, 0xff], 4);
+      writeFileSync(`${dir}/s.nc`, bytes);
+      const raw = await openRaw(`${dir}/s.nc`);
+      try {
+        expect(raw.dims.find((d) => d.name === 'time')!.size).toBe(2);
+        const t = raw.variables.get('t')!;
+        expect(numbers(await t.read([0, 0, 0, 0], [2, 3, 5, 16]))).toEqual(REFERENCE.files['nc3_classic.nc'].variables.t.raw);
+      } finally {
+        await raw.close();
+      }
+    } finally {
+      rmSync(dir, { recursive: true, force: true });
+    }
+  });
+});

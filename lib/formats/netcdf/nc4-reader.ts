@@ -9,6 +9,38 @@ import type H5 from 'h5wasm/node';
 import { FormatError, UnsupportedError } from '../../errors.js';
 import type { Attributes, AttrValue, Dimension, Dtype, RawDataset, RawVariable, TypedArray } from '../../grid/types.js';
 import { HDF5_FILTERS } from './hdf5-filters.js';
+import { hdf5Superblock } from './hdf5-superblock.js';
+import { open as openFile } from 'node:fs/promises';
+
+/** Offsets where an HDF5 superblock may start (0, 512, 1024, 2048 …). */
+async function checkSuperblock(path: string): Promise<void> {
+  let fh;
+  try {
+    fh = await openFile(path, 'r');
+  } catch (e) {
+    throw new FormatError(`${path}: cannot open: ${(e as Error).message}`, { file: path, cause: e });
+  }
+  try {
+    const size = (await fh.stat()).size;
+    for (let at = 0; at + 8 <= size && at <= 1 << 20; at = at === 0 ? 512 : at * 2) {
+      const head = new Uint8Array(96);
+      const { bytesRead } = await fh.read(head, 0, 96, at);
+      const sig = [0x89, 0x48, 0x44, 0x46, 0x0d, 0x0a, 0x1a, 0x0a];
+      if (bytesRead < 8 || !sig.every((b, i) => head[i] === b)) continue;
+      const sb = hdf5Superblock(head.subarray(0, bytesRead), 0);
+      if (sb !== undefined && at + sb.endOfFile > size) {
+        throw new FormatError(
+          `${path}: truncated file: the HDF5 superblock says the file ends at byte ${at + sb.endOfFile}, it has ${size} bytes`,
+          { file: path, offset: size },
+        );
+      }
+      return;
+    }
+    throw new FormatError(`${path}: no HDF5 signature found`, { file: path, offset: 0 });
+  } finally {
+    await fh.close();
+  }
+}
 
 type H5Api = typeof H5;
 type H5File = InstanceType<H5Api['File']>;
@@ -115,6 +147,7 @@ function isDimensionScale(d: H5Dataset): boolean {
 
 /** Opens a NetCDF-4 (HDF5) file as a raw dataset (no CF decoding). */
 export async function openNetcdf4Raw(path: string): Promise<RawDataset> {
+  await checkSuperblock(path);
   const h5wasm = await h5wasmReady();
   let f: H5File;
   try {
@@ -126,7 +159,8 @@ export async function openNetcdf4Raw(path: string): Promise<RawDataset> {
     return buildDataset(h5wasm, f, path);
   } catch (e) {
     f.close();
-    throw e;
+    if (e instanceof FormatError || e instanceof UnsupportedError) throw e;
+    throw new FormatError(`${path}: cannot read the NetCDF-4/HDF5 structure (damaged file?): ${(e as Error).message}`, { file: path, cause: e });
   }
 }
 
