@@ -85,7 +85,10 @@ export function readGrid(
       const earth = earthOf(flags);
       const incrementsGiven = (flags & 0x80) !== 0;
       const reduced = niCoded === MISSING16;
-      if (nj === 0 || nj === MISSING16) throw ctx.format(at(9), `Nj ${nj} is not a number of rows`);
+      if (nj === MISSING16) {
+        throw ctx.unsupported(at(9), 'GRIB1 grid quasi-regular along meridians (Nj all ones), data representation type', type);
+      }
+      if (nj === 0) throw ctx.format(at(9), 'Nj is 0');
       if (!reduced && niCoded === 0) throw ctx.format(at(7), 'Ni is 0');
       let pl: Int32Array | undefined;
       let numberOfPoints: number;

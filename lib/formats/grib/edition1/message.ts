@@ -31,13 +31,8 @@ export const POINTS_PER_BYTE_LIMIT = 64;
 export function parseGrib1Message(file: string, bytes: Uint8Array, location: GribMessageLocation): GribFieldInfo {
   const ctx = new MessageContext(file, location);
   if (bytes.length < SECTION0_LENGTH) throw ctx.format(0, `message is truncated: ${bytes.length} bytes, section 0 needs 8`);
-  let total: number;
-  try {
-    total = grib1MessageLength(bytes, { file, offset: location.offset, message: location.number });
-  } catch (e) {
-    // Re-raise with the standard wording of this message.
-    throw ctx.format(0, (e as Error).message.replace(/^.*?GRIB1 (message \d+ )?(at byte \d+: )?/, ''));
-  }
+  // Errors from the length rule already name the file, message and byte offset.
+  const total = grib1MessageLength(bytes, { file, offset: location.offset, message: location.number });
   if (total < SECTION0_LENGTH + 28 + 11 + 4) throw ctx.format(4, `total length ${total} is too small for a GRIB1 message`);
   if (total > bytes.length) throw ctx.format(4, `message is truncated: total length ${total}, only ${bytes.length} bytes present`);
   const end = total;
