@@ -372,7 +372,7 @@ async function writeLayer(
       compress: 'deflate',
       tiled: true,
       cog: true,
-      overviewResampling: kind === 'mask' ? 'mode' : 'average',
+      overviewResampling: kind === 'mask' ? 'nearest' : 'average',
     },
     [...bands],
     metadata,
