@@ -58,20 +58,14 @@ async function readWhole(v: RawVariable): Promise<Float64Array> {
 /** Coordinate values decoded with the CF coders (a packed coordinate is rare but legal). */
 async function readCoordinate(v: RawVariable, file: string): Promise<Float64Array> {
   const { codec } = valueCodec(v, { file, variable: v.name }, () => ({ units: '', unitScale: 1, unitOffset: 0 }));
+  if (!codec.scaleOffset.packed) return readWhole(v);
   const stored = await v.read(
     v.shape.map(() => 0),
     v.shape,
   );
   const f32 = new Float32Array(stored.length);
-  if (codec.scaleOffset.packed) {
-    decodeValues(stored, codec, f32);
-    return Float64Array.from(f32);
-  }
-  return readWhole(v);
-}
-
-function describeFound(fields: readonly Field[]): string[] {
-  return fields.filter((f) => f.quantity !== undefined).map((f) => `${f.name} (${f.quantity})`);
+  decodeValues(stored, codec, f32);
+  return Float64Array.from(f32);
 }
 
 export async function decodeDataset(raw: RawDataset, options: DecodeOptions = {}): Promise<GridDataset> {
@@ -190,7 +184,7 @@ export async function decodeDataset(raw: RawDataset, options: DecodeOptions = {}
     const hg = regularLatLonGrid(lat, lon);
     for (const n of hg.notes) note(`variable ${v.name}: ${n}`);
     let levelsPa = new Float64Array(0);
-    let extra: Record<string, unknown> = { ...(enc0.extra ?? {}) };
+    const extra: Record<string, unknown> = { ...(enc0.extra ?? {}) };
     if (levelDim >= 0) {
       const la = axes.get(v.dims[levelDim])!;
       if (levelKind === 'pressure') {

@@ -17,7 +17,7 @@ const LON_UNITS = new Set(['degrees_east', 'degree_east', 'degree_e', 'degrees_e
 const LAT_NAMES = new Set(['lat', 'latitude', 'lats', 'nav_lat', 'g0_lat_0']);
 const LON_NAMES = new Set(['lon', 'long', 'longitude', 'lons', 'nav_lon', 'g0_lon_1']);
 const PRESSURE_STANDARD_NAMES = new Set(['air_pressure']);
-/** Pressure units spelled as UDUNITS and common files do (checked with the units parser too). */
+/** Pressure units as UDUNITS and common files spell them; their factor to Pa comes from lib/cf/units.ts. */
 const PRESSURE_UNITS = /^(pa|hpa|kpa|mbar|mb|millibar|millibars|bar|pascal|pascals|atm)$/i;
 
 function text(attrs: Attributes, key: string): string | undefined {

@@ -177,9 +177,6 @@ function buildDataset(h5wasm: H5Api, f: H5File, path: string): RawDataset {
     }
     if (e instanceof h5wasm.Dataset) datasets.push(e);
   }
-  if (datasets.length === 0 && f.keys().length === 0) {
-    // An empty root group is valid HDF5, and an empty NetCDF-4 file: nothing to read.
-  }
   const dims = new Map<string, Dimension>();
   for (const d of datasets) {
     if (!isDimensionScale(d)) continue;
@@ -214,7 +211,7 @@ function buildDataset(h5wasm: H5Api, f: H5File, path: string): RawDataset {
           scales = [];
         }
       }
-      let dn = scales.length > 0 ? baseName(scales[0]) : `phony_dim_${i}_${shape[i]}`;
+      const dn = scales.length > 0 ? baseName(scales[0]) : `phony_dim_${i}_${shape[i]}`;
       if (!dims.has(dn)) dims.set(dn, { name: dn, size: shape[i], unlimited: false });
       dimNames.push(dn);
     }
