@@ -26,8 +26,9 @@
  * the ends (geopotential metres). Otherwise the thickness is the ISA pressure-altitude difference of
  * the bounds (ICAO Doc 7488). The output records which.
  *
- * Levels may be added in any order; the accumulator keeps, per cell, the count, the bounds, an ISA
- * depth sum and one bit per level (memory ≈ cells × (16 + levels/8) bytes). Geopotential depths are
+ * Levels may be added in any order; the accumulator keeps, per cell, the count, the ranks of the
+ * lowest and highest flagged levels, an ISA depth sum and one bit per level (memory ≈ cells ×
+ * (15 + levels/8) bytes). Geopotential depths are
  * formed in {@link ColumnAccumulator.finalize}, which reads the heights one level at a time.
  *
  * @packageDocumentation
@@ -142,8 +143,9 @@ export class ColumnAccumulator {
   private readonly isaThickness: Float64Array;
   private readonly count: Uint16Array;
   private readonly missing: Uint8Array;
-  private readonly maxLowerPa: Float32Array;
-  private readonly minUpperPa: Float32Array;
+  /** Rank (position by increasing pressure) of the lowest and highest flagged level; −1 none. */
+  private readonly baseRank: Int16Array;
+  private readonly topRank: Int16Array;
   private readonly isaDepth: Float64Array;
   private readonly bits: Uint8Array;
   private readonly bytesPerCell: number;
@@ -151,15 +153,15 @@ export class ColumnAccumulator {
 
   constructor(npoints: number, levelsPa: ArrayLike<number>) {
     if (levelsPa.length === 0) throw new ParameterError('a column needs at least one level', 'levels');
-    if (levelsPa.length > 65535) throw new ParameterError('too many levels', 'levels');
+    if (levelsPa.length > 32767) throw new ParameterError('too many levels', 'levels');
     this.npoints = npoints;
     this.levelsPa = Float64Array.from(levelsPa);
     this.bounds = layerBounds(this.levelsPa);
     this.isaThickness = isaLayerThickness(this.bounds);
     this.count = new Uint16Array(npoints);
     this.missing = new Uint8Array(npoints);
-    this.maxLowerPa = new Float32Array(npoints).fill(NaN);
-    this.minUpperPa = new Float32Array(npoints).fill(NaN);
+    this.baseRank = new Int16Array(npoints).fill(-1);
+    this.topRank = new Int16Array(npoints).fill(-1);
     this.isaDepth = new Float64Array(npoints);
     this.bytesPerCell = Math.ceil(levelsPa.length / 8);
     this.bits = new Uint8Array(npoints * this.bytesPerCell);
@@ -180,13 +182,12 @@ export class ColumnAccumulator {
       throw new ParameterError(`mask has ${persistent.length} cells, the grid ${this.npoints}`, 'mask');
     }
     this.added[levelIndex] = 1;
-    const lower = this.bounds.lowerPa[levelIndex];
-    const upper = this.bounds.upperPa[levelIndex];
+    const rank = this.bounds.rank[levelIndex];
     const thick = this.isaThickness[levelIndex];
     const byte = levelIndex >> 3;
     const bit = 1 << (levelIndex & 7);
     const bpc = this.bytesPerCell;
-    const { count, missing, maxLowerPa, minUpperPa, isaDepth, bits } = this;
+    const { count, missing, baseRank, topRank, isaDepth, bits } = this;
     for (let i = 0; i < persistent.length; i++) {
       const m = persistent[i];
       if (m === 0) continue;
@@ -196,8 +197,8 @@ export class ColumnAccumulator {
       }
       count[i]++;
       bits[i * bpc + byte] |= bit;
-      if (!(maxLowerPa[i] >= lower)) maxLowerPa[i] = lower;
-      if (!(minUpperPa[i] <= upper)) minUpperPa[i] = upper;
+      if (baseRank[i] < rank) baseRank[i] = rank;
+      if (topRank[i] < 0 || topRank[i] > rank) topRank[i] = rank;
       isaDepth[i] += thick;
     }
   }
@@ -219,19 +220,18 @@ export class ColumnAccumulator {
     const baseFL = new Float32Array(np).fill(NaN);
     const topFL = new Float32Array(np).fill(NaN);
     const depthM = new Float32Array(np).fill(NaN);
-    // Flight levels of the bounds: a handful of distinct values, computed once.
-    const flOf = new Map<number, number>();
-    const fl = (p: number): number => {
-      let v = flOf.get(p);
-      if (v === undefined) {
-        v = flightLevelFromPressure(p);
-        flOf.set(p, v);
-      }
-      return v;
-    };
-    for (let k = 0; k < n; k++) {
-      fl(Math.fround(this.bounds.lowerPa[k]));
-      fl(Math.fround(this.bounds.upperPa[k]));
+    // Bounds by rank, in hPa and as flight levels: a handful of values, computed once.
+    const order = this.bounds.order;
+    const lowerHPa = new Float32Array(n);
+    const upperHPa = new Float32Array(n);
+    const lowerFL = new Float32Array(n);
+    const upperFL = new Float32Array(n);
+    for (let s = 0; s < n; s++) {
+      const k = order[s];
+      lowerHPa[s] = this.bounds.lowerPa[k] / 100;
+      upperHPa[s] = this.bounds.upperPa[k] / 100;
+      lowerFL[s] = flightLevelFromPressure(this.bounds.lowerPa[k]);
+      upperFL[s] = flightLevelFromPressure(this.bounds.upperPa[k]);
     }
     for (let i = 0; i < np; i++) {
       if (this.missing[i]) {
@@ -241,21 +241,19 @@ export class ColumnAccumulator {
       const c = this.count[i];
       count[i] = c;
       if (c === 0) continue;
-      const lo = this.maxLowerPa[i];
-      const up = this.minUpperPa[i];
-      baseHPa[i] = lo / 100;
-      topHPa[i] = up / 100;
-      baseFL[i] = fl(lo);
-      topFL[i] = fl(up);
+      const b = this.baseRank[i];
+      const t = this.topRank[i];
+      baseHPa[i] = lowerHPa[b];
+      topHPa[i] = upperHPa[t];
+      baseFL[i] = lowerFL[b];
+      topFL[i] = upperFL[t];
       depthM[i] = this.isaDepth[i];
     }
     if (heights === undefined || n === 1) {
       return { count, baseHPa, topHPa, baseFL, topFL, depthM, heightSource: heights?.source ?? 'isa_pressure_altitude', heightVariable: heights?.variable };
     }
     // Geopotential depths: slide a window of three levels down the column (increasing pressure).
-    depthM.fill(NaN);
-    for (let i = 0; i < np; i++) if (count[i] > 0) depthM[i] = 0;
-    const order = this.bounds.order;
+    for (let i = 0; i < np; i++) depthM[i] = count[i] > 0 ? 0 : NaN;
     const bufs = [new Float32Array(np), new Float32Array(np), new Float32Array(np)];
     let prev: Float32Array | undefined;
     let cur = await heights.read(order[0], bufs[0]);

@@ -10,9 +10,9 @@
  *   relative humidity RH:  δe   = (Δ/2)·e_c(T)                        from e = RH·e_c(T) (convention c)
  *   dew point T_d:         δe   = (Δ/2)·de_w/dT(T_d)                  from e = e_w(T_d)
  *
- * (first-order propagation, ε = 0.622 as in the physics core), and δRHi = 100·F·δe/e_i(T). F is
- * the humidity scale; where F·e is capped at water saturation the scaled value is fixed and δRHi
- * is reported as computed before the cap.
+ * (first-order propagation, ε = 0.622 as in the physics core), and δRHi = 100·F·δe/e_i(T) =
+ * RHi·δe/e. F is the humidity scale; where the kernel capped F·e at water saturation the level
+ * summary's δRHi is relative to the capped RHi.
  *
  * Units: the level reports δRHi as **percentage points of RHi** (absolute: RHi = 100 % ± δRHi),
  * the quantity to compare with the distance of RHi from the threshold, and also relative to RHi
@@ -112,46 +112,73 @@ export function rhiUncertaintyAt(
 }
 
 /**
+ * Relative vapour-pressure uncertainty δe/e of one cell (the factor by which RHi's own value is
+ * multiplied to give δRHi); NaN when it cannot be formed (h ≤ 0 for q and r, RH ≤ 0).
+ */
+function relativeVapourUncertainty(quantity: HumiditySourceKind, half: number, h: number, ePa: number, saturation: SaturationFormulation): number {
+  switch (quantity) {
+    case 'specific_humidity':
+      return h > 0 ? (half * EPSILON) / (h * (EPSILON + (1 - EPSILON) * h)) : NaN;
+    case 'humidity_mixing_ratio':
+      return h > 0 ? (half * EPSILON) / (h * (EPSILON + h)) : NaN;
+    case 'relative_humidity':
+      return h > 0 ? half / h : NaN;
+    case 'dew_point_temperature':
+      return ePa > 0 ? (half * saturationPressureWaterDerivative(h, saturation)) / ePa : NaN;
+  }
+}
+
+/**
  * Level summary of the RHi uncertainty from quantisation: max and median δRHi (absolute and
  * relative) over the valid cells and the count of cells whose threshold test is unresolved.
- * Cells outside the saturation formulation's range or with invalid RHi are skipped.
+ * Computed as δRHi = RHi·δe/e from the kernel's RHi, so no saturation pressure is evaluated per
+ * cell (for a dew point, one derivative of e_w per cell). Where the kernel capped F·e at water
+ * saturation, δRHi is relative to the capped RHi. Cells with invalid RHi are skipped.
  */
 export function rhiUncertainty(inp: UncertaintyInputs): RhiUncertainty {
+  if (!(inp.step >= 0)) throw new ParameterError(`quantisation step must be ≥ 0, got ${inp.step}`, 'quantizationStep');
+  if (inp.quantity === 'relative_humidity' && inp.convention === undefined) {
+    throw new ParameterError('relative humidity needs a phase convention', 'rh-convention');
+  }
   const n = inp.rhiPercent.length;
   const abs = inp.scratch?.absolute ?? new Float32Array(n);
   const rel = inp.scratch?.relative ?? new Float32Array(n);
+  const half = inp.step / 2;
+  const thr = inp.iceThresholdPercent;
+  const quantity = inp.quantity;
+  const hum = inp.humidity;
+  const e = inp.vapourPressurePa;
+  const rhi = inp.rhiPercent;
+  const inside = inp.inside;
   let m = 0;
   let near = 0;
   let maxA = -Infinity;
   let maxR = -Infinity;
   for (let i = 0; i < n; i++) {
-    if (inp.inside !== undefined && inp.inside[i] !== 1) continue;
-    const r = inp.rhiPercent[i];
+    if (inside !== undefined && inside[i] !== 1) continue;
+    const r = rhi[i];
     if (!(r === r)) continue;
-    let d: number;
-    try {
-      d = rhiUncertaintyAt(
-        inp.quantity,
-        inp.step,
-        inp.humidity[i],
-        inp.temperatureK[i],
-        inp.vapourPressurePa[i],
-        inp.humidityScale,
-        inp.saturation,
-        inp.convention,
-      );
-    } catch (err) {
-      if (err instanceof RangeError) continue;
-      throw err;
+    let f: number;
+    if (quantity === 'specific_humidity') {
+      const h = hum[i];
+      f = h > 0 ? (half * EPSILON) / (h * (EPSILON + (1 - EPSILON) * h)) : NaN;
+    } else {
+      try {
+        f = relativeVapourUncertainty(quantity, half, hum[i], e[i], inp.saturation);
+      } catch (err) {
+        if (err instanceof RangeError) continue;
+        throw err;
+      }
     }
-    if (!(d === d)) continue;
-    const dr = r > 0 ? (100 * d) / r : NaN;
+    if (!(f === f)) continue;
+    const d = r * f;
+    const dr = 100 * f;
     abs[m] = d;
-    rel[m] = dr === dr ? dr : 0;
+    rel[m] = dr;
     m++;
     if (d > maxA) maxA = d;
     if (dr > maxR) maxR = dr;
-    if (Math.abs(r - inp.iceThresholdPercent) <= d) near++;
+    if (Math.abs(r - thr) <= d) near++;
   }
   if (m === 0) {
     return {
