@@ -40,6 +40,20 @@ export function decodeSimple(bds: Section4, decimalScale: number, count: number,
     return;
   }
   checkSimple(bds, count, ctx);
-  unpackUnsigned(bds.bytes, 11 * 8, bits, count, out);
+  const b = bds.bytes;
+  // Octet 12 starts on a byte: the common widths are unpacked and scaled in one pass.
+  if (bits === 16) {
+    for (let i = 0, q = 11; i < count; i++, q += 2) out[i] = (((b[q] << 8) | b[q + 1]) * s + r) * d;
+    return;
+  }
+  if (bits === 8) {
+    for (let i = 0; i < count; i++) out[i] = (b[11 + i] * s + r) * d;
+    return;
+  }
+  if (bits === 24) {
+    for (let i = 0, q = 11; i < count; i++, q += 3) out[i] = (((b[q] << 16) | (b[q + 1] << 8) | b[q + 2]) * s + r) * d;
+    return;
+  }
+  unpackUnsigned(b, 11 * 8, bits, count, out);
   for (let i = 0; i < count; i++) out[i] = (out[i] * s + r) * d;
 }
