@@ -55,7 +55,7 @@ export function extractChunk(band: RasterArray, g: ChunkGrid, cx: number, cy: nu
 }
 
 function zlibOptions(p: ResolvedProfile): ZlibOptions {
-  return p.runLength ? { level: 6, strategy: zlibConstants.Z_RLE } : { level: p.deflateLevel };
+  return p.runLength ? { level: 6, strategy: zlibConstants.Z_RLE } : { level: p.deflateLevel, windowBits: p.windowBits };
 }
 
 function encodeRaw(band: RasterArray, g: ChunkGrid, cx: number, cy: number, p: ResolvedProfile): Uint8Array {

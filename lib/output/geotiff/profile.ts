@@ -59,11 +59,13 @@ export const DEFAULT_PROFILE = {
  * - 8-bit data (masks, classes): zlib's run-length strategy (Z_RLE), about four times faster than
  *   level 6 for ~10 % more bytes on mask rasters;
  * - wider integers: level 6;
- * - floats: level 3 — the mantissa noise of float fields gains ~3 % from level 6 at almost
- *   twice the time.
- * An explicit deflateLevel always uses zlib's default strategy at that level.
+ * - floats: level 3 with a 1 KiB window — the mantissa noise of float fields gains ~3 % from
+ *   level 6 or a 32 KiB window at up to twice the time (measured on 256 × 256 float32 tiles
+ *   after the floating-point predictor: 2.6 ms and 62.9 % vs 4.2 ms and 61.0 % at level 3 with
+ *   the full window, 7.8 ms and 60.0 % at level 6).
+ * An explicit deflateLevel always uses zlib's default strategy and window at that level.
  */
-export const DEFAULT_DEFLATE_LEVEL = { integer8: 'rle', integer: 6, float: 3 } as const;
+export const DEFAULT_DEFLATE_LEVEL = { integer8: 'rle', integer: 6, float: 3, floatWindowBits: 10 } as const;
 
 interface DtypeInfo {
   readonly bytes: number;
@@ -97,6 +99,8 @@ export interface ResolvedProfile {
   readonly deflateLevel: number;
   /** zlib run-length strategy (default for 8-bit data). */
   readonly runLength: boolean;
+  /** zlib window size (log2 bytes). */
+  readonly windowBits: number;
   readonly predictor: 'none' | 'horizontal' | 'float';
   readonly tiled: boolean;
   readonly blockSize: number;
@@ -182,6 +186,7 @@ export function resolveProfile(profile: RasterProfile): ResolvedProfile {
     compress,
     deflateLevel,
     runLength,
+    windowBits: profile.deflateLevel === undefined && isFloat ? DEFAULT_DEFLATE_LEVEL.floatWindowBits : 15,
     predictor,
     tiled,
     blockSize,
