@@ -6,7 +6,7 @@
  */
 import { describe, expect, it } from 'vitest';
 import { DecodeError, FormatError, UnsupportedError } from '../../../lib/errors.js';
-import { parseGrib1Message } from '../../../lib/formats/grib/edition1/index.js';
+import { describeGrib1Parameter, grib1MessageLength, parseGrib1Message } from '../../../lib/formats/grib/edition1/index.js';
 import { loadFixture } from './fixtures.js';
 
 const FILE = 'damaged.grib';
@@ -192,6 +192,48 @@ describe('GRIB1 bad input', () => {
       b[8 + 17] = 3;
     });
     expectError(() => parse(b), UnsupportedError, OFFSET + 8 + 17, /time unit \(Code table 4\) 3 is not supported/);
+  });
+
+  it('a damaged message among others: its error names it, the others stay readable', () => {
+    // Three messages one after another, as in a file; the middle one has a predefined bitmap.
+    const a = loadFixture('ll_t500_t128_16bit');
+    const c = loadFixture('reduced_gg_n8_r700_t128_second_order');
+    const bad = damaged('ll_z250_t128_24bit_bitmap', (b) => {
+      b[sections(b).bms! + 5] = 3;
+    });
+    const file = new Uint8Array(a.bytes.length + bad.length + c.bytes.length);
+    file.set(a.bytes, 0);
+    file.set(bad, a.bytes.length);
+    file.set(c.bytes, a.bytes.length + bad.length);
+    const results: string[] = [];
+    for (let offset = 0, n = 1; offset < file.length; n++) {
+      const length = grib1MessageLength(file.subarray(offset), { file: FILE, offset, message: n });
+      const bytes = file.subarray(offset, offset + length);
+      try {
+        const values = parseGrib1Message(FILE, bytes, { number: n, offset, length, edition: 1 }).decode();
+        results.push(`ok ${values.length}`);
+      } catch (e) {
+        expect(e).toBeInstanceOf(UnsupportedError);
+        expect((e as UnsupportedError).offset).toBe(offset + 92 + 4);
+        results.push((e as Error).message);
+      }
+      offset += length;
+    }
+    expect(results).toEqual([
+      `ok ${a.ref.values.length}`,
+      `${FILE}: GRIB1 message 2 at byte ${a.bytes.length + 96}: GRIB1 predefined bitmap 3 is not supported`,
+      `ok ${c.ref.values.length}`,
+    ]);
+  });
+
+  it('an unknown parameter is kept by its numbers and has no description', () => {
+    const b = damaged('ll_t500_t128_16bit', (b) => {
+      b[8 + 8] = 61; // table 128 has no parameter 61 (ecCodes grib1/2.98.128.table)
+    });
+    const info = parse(b);
+    expect(info.parameter).toEqual({ edition: 1, table: 128, number: 61, centre: 98 });
+    expect(describeGrib1Parameter({ table: 128, number: 61, centre: 98 })).toBeUndefined();
+    expect(info.decode().length).toBe(312);
   });
 
   it('random damage never hangs and only ever raises typed errors', () => {
