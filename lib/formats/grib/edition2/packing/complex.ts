@@ -14,6 +14,7 @@
  */
 import { unpackUnsigned } from '../../../../codecs/bits.js';
 import { s32, u32, u8 } from '../bytes.js';
+import { readBitsInto } from './bitread.js';
 import { constantField, readScale, scaleFactors } from './scale.js';
 import { PackingProblem, type DataTemplate, type PackingParameters } from './types.js';
 
@@ -119,25 +120,25 @@ function decodeComplex(p: PackingParameters, data: Uint8Array, count: number): F
       n += len;
       continue;
     }
-    const view = ints.subarray(n, n + len);
-    unpackUnsigned(data, bitPos, w, len, view);
-    bitPos += w * len;
-    if (missing) {
+    if (!missing) {
+      readBitsInto(data, bitPos, w, len, ints, n, ref);
+    } else {
+      readBitsInto(data, bitPos, w, len, ints, n, 0);
       const m1 = 2 ** w - 1;
       const m2 = mm === 2 ? m1 - 1 : -1;
-      for (let k = 0; k < len; k++) {
-        const v = view[k];
-        if (v === m1 || v === m2) missing[n + k] = 1;
-        else view[k] = v + ref;
+      for (let k = n; k < n + len; k++) {
+        const v = ints[k];
+        if (v === m1 || v === m2) missing[k] = 1;
+        else ints[k] = v + ref;
       }
-    } else {
-      for (let k = 0; k < len; k++) view[k] += ref;
     }
+    bitPos += w * len;
     n += len;
   }
   if (order > 0) undoSpatialDifferencing(ints, missing, count, order, ival1, ival2, minsd);
   const { bscale, dscale, ref } = scaleFactors(p);
-  for (let i = 0; i < count; i++) ints[i] = missing && missing[i] ? Number.NaN : (ints[i] * bscale + ref) * dscale;
+  for (let i = 0; i < count; i++) ints[i] = (ints[i] * bscale + ref) * dscale;
+  if (missing) for (let i = 0; i < count; i++) if (missing[i]) ints[i] = Number.NaN;
   return ints;
 }
 

@@ -2,7 +2,7 @@
  * Template 5.0, grid point data – simple packing: `count` unsigned integers of `bitsPerValue`
  * bits, MSB first, then Y = (R + X·2^E)·10^−D.
  */
-import { unpackUnsigned } from '../../../../codecs/bits.js';
+import { readBitsInto } from './bitread.js';
 import { readScale, constantField, scaleFactors } from './scale.js';
 import { PackingProblem, type DataTemplate } from './types.js';
 
@@ -28,7 +28,7 @@ export function unpackSimple(
     for (let i = 0; i < count; i++) out[i] = (data[i] * bscale + ref) * dscale;
     return out;
   }
-  unpackUnsigned(data, 0, bits, count, out);
+  readBitsInto(data, 0, bits, count, out, 0, 0);
   for (let i = 0; i < count; i++) out[i] = (out[i] * bscale + ref) * dscale;
   return out;
 }
