@@ -2,7 +2,8 @@
 """Independent oracle for frostgrid's level products.
 
 Reads temperature and specific humidity (or mixing ratio) on pressure levels from a NetCDF file
-with netCDF4-python and computes, per (time, level), with numpy only:
+with netCDF4-python, or from a GRIB file with ecCodes' python bindings (--grib; shortNames from
+--t and --q/--r, isobaricInhPa levels, times sorted by validity date and time), and computes, per (time, level), with numpy only:
 
   e    = q p / (eps + (1 - eps) q)          (or r p / (eps + r)),  eps = 0.622
   RHi  = 100 e / e_i(T)                      e_i: Murphy & Koop (2005), eq. 7
@@ -28,7 +29,7 @@ ice_supersaturated, contrail_forming, persistent_contrail (0/1, 255 invalid) and
 The manifest lists per slice: time index, pressure (Pa), T_LM (K), G (Pa/K), byte offsets.
 
 Usage:
-  /usr/bin/python3 level_masks.py FILE OUT [--t t] [--q q | --r r] [--ei-h2o 1.25]
+  /usr/bin/python3 level_masks.py FILE OUT [--grib] [--t t] [--q q | --r r] [--ei-h2o 1.25]
       [--lhv-mj 43.2] [--efficiency 0.3] [--threshold 100] [--freezing-temperature 235]
 """
 import argparse
@@ -98,10 +99,62 @@ def pressure_levels_pa(ds, var):
     sys.exit("level_masks.py: no pressure coordinate found")
 
 
+def read_netcdf(path, tname, hname):
+    """(t, h, levels_pa): t and h as float64 arrays (time, level, y, x) with NaN for missing."""
+    ds = netCDF4.Dataset(path)
+    tv = find_var(ds, tname)
+    hv = find_var(ds, hname)
+    tv.set_auto_maskandscale(True)
+    hv.set_auto_maskandscale(True)
+    kdim, levels = pressure_levels_pa(ds, tv)
+    if tv.dimensions[0] != "time" or kdim != 1:
+        sys.exit("level_masks.py: expects (time, level, y, x) variables")
+    t = np.ma.filled(tv[:].astype(np.float64), np.nan)
+    h = np.ma.filled(hv[:].astype(np.float64), np.nan)
+    ds.close()
+    return t, h, levels
+
+
+def read_grib(path, tname, hname):
+    """The same from GRIB messages on isobaric levels (hPa), via ecCodes."""
+    import eccodes
+    found = {}
+    shape = None
+    with open(path, "rb") as f:
+        while True:
+            h = eccodes.codes_grib_new_from_file(f)
+            if h is None:
+                break
+            try:
+                name = eccodes.codes_get_string(h, "shortName")
+                if name not in (tname, hname) or eccodes.codes_get_string(h, "typeOfLevel") != "isobaricInhPa":
+                    continue
+                key = (eccodes.codes_get_long(h, "validityDate"), eccodes.codes_get_long(h, "validityTime"))
+                level = float(eccodes.codes_get_double(h, "level")) * 100.0
+                nj, ni = eccodes.codes_get_long(h, "Nj"), eccodes.codes_get_long(h, "Ni")
+                shape = (nj, ni)
+                vals = eccodes.codes_get_values(h).astype(np.float64)
+                if eccodes.codes_get_long(h, "bitmapPresent"):
+                    vals[vals == eccodes.codes_get_double(h, "missingValue")] = np.nan
+                found[(name, key, level)] = vals.reshape(nj, ni)
+            finally:
+                eccodes.codes_release(h)
+    times = sorted({k[1] for k in found})
+    levels = np.array(sorted({k[2] for k in found if k[0] == tname}))
+    t = np.full((len(times), len(levels)) + shape, np.nan)
+    hh = np.full_like(t, np.nan)
+    for i, tm in enumerate(times):
+        for k, lev in enumerate(levels):
+            t[i, k] = found[(tname, tm, lev)]
+            hh[i, k] = found[(hname, tm, lev)]
+    return t, hh, levels
+
+
 def main():
     ap = argparse.ArgumentParser(description="independent numpy oracle for level masks")
     ap.add_argument("input")
     ap.add_argument("out")
+    ap.add_argument("--grib", action="store_true", help="read GRIB with ecCodes instead of NetCDF")
     ap.add_argument("--t", default="t")
     ap.add_argument("--q", default=None)
     ap.add_argument("--r", default=None)
@@ -112,25 +165,21 @@ def main():
     ap.add_argument("--freezing-temperature", type=float, default=235.0)
     a = ap.parse_args()
 
-    ds = netCDF4.Dataset(a.input)
-    tv = find_var(ds, a.t)
     hname, kind = (a.r, "r") if a.r else (a.q or "q", "q")
-    hv = find_var(ds, hname)
-    tv.set_auto_maskandscale(True)
-    hv.set_auto_maskandscale(True)
-    kdim, levels = pressure_levels_pa(ds, tv)
-    if tv.dimensions[0] != "time" or kdim != 1:
-        sys.exit("level_masks.py: expects (time, level, y, x) variables")
-    nt = tv.shape[0]
+    if a.grib:
+        T, H, levels = read_grib(a.input, a.t, hname)
+    else:
+        T, H, levels = read_netcdf(a.input, a.t, hname)
+    nt = T.shape[0]
     Q = a.lhv_mj * 1e6
 
-    manifest = {"input": a.input, "parameters": vars(a), "shape": list(tv.shape[2:]), "slices": []}
+    manifest = {"input": a.input, "parameters": vars(a), "shape": list(T.shape[2:]), "slices": []}
     offset = 0
     with open(a.out + ".bin", "wb") as out:
         for it in range(nt):
             for k, p in enumerate(levels):
-                t = np.ma.filled(tv[it, k, :, :].astype(np.float64), np.nan).astype(np.float32).astype(np.float64)
-                h = np.ma.filled(hv[it, k, :, :].astype(np.float64), np.nan).astype(np.float32).astype(np.float64)
+                t = T[it, k].astype(np.float32).astype(np.float64)
+                h = H[it, k].astype(np.float32).astype(np.float64)
                 if kind == "q":
                     e = h * p / (EPS + (1.0 - EPS) * h)
                 else:
@@ -179,7 +228,6 @@ def main():
                 manifest["slices"].append(entry)
     with open(a.out + ".json", "w") as f:
         json.dump(manifest, f, indent=1)
-    ds.close()
 
 
 if __name__ == "__main__":

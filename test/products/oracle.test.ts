@@ -1,6 +1,6 @@
 /**
  * Level masks of lib/products against the independent numpy oracle (test/oracle/level_masks.py,
- * Murphy & Koop 2005 eqs. 7 and 10, Schumann 1996), cell by cell on the demo NetCDF, except the
+ * Murphy & Koop 2005 eqs. 7 and 10, Schumann 1996), cell by cell on the demo NetCDF and GRIB2, except the
  * cells the oracle flags as within rounding of a threshold.
  */
 import { existsSync, mkdtempSync, readFileSync, rmSync } from 'node:fs';
@@ -15,6 +15,7 @@ import { LevelWorkspace, cellWeights, evaluateFieldLevel, selectHumidity, select
 
 const ROOT = fileURLToPath(new URL('../../', import.meta.url));
 const DEMO = join(ROOT, 'data-samples/demo/frostgrid-demo.nc');
+const DEMO_GRIB = join(ROOT, 'data-samples/demo/frostgrid-demo.grib2');
 const ORACLE = join(ROOT, 'test/oracle/level_masks.py');
 const OPEN_TS = join(ROOT, 'lib/open.ts');
 
@@ -29,12 +30,14 @@ const haveOpen = existsSync(OPEN_TS);
 const tmp = mkdtempSync(join(tmpdir(), 'frostgrid-oracle-'));
 afterAll(() => rmSync(tmp, { recursive: true, force: true }));
 
-async function compare(params: CriterionParameters, label: string): Promise<void> {
+async function compare(params: CriterionParameters, label: string, file = DEMO): Promise<void> {
   const out = join(tmp, label);
+  const grib = file.endsWith('.grib2');
   run(PYTHON, [
     ORACLE,
-    DEMO,
+    file,
     out,
+    ...(grib ? ['--grib'] : []),
     '--t', 't',
     '--q', 'q',
     '--ei-h2o', String(params.fuel.eiH2O),
@@ -47,7 +50,7 @@ async function compare(params: CriterionParameters, label: string): Promise<void
   const bin = readFileSync(out + '.bin');
   const n = manifest.shape[0] * manifest.shape[1];
   const { open } = (await import('../../lib/open.js')) as typeof import('../../lib/open.js');
-  const ds = await open(DEMO);
+  const ds = await open(file);
   try {
     const temperature = selectTemperature(ds);
     const humidity = selectHumidity(ds);
@@ -104,7 +107,7 @@ async function compare(params: CriterionParameters, label: string): Promise<void
   }
 }
 
-describe('products vs the numpy oracle on the demo NetCDF', () => {
+describe('products vs the numpy oracle on the demo NetCDF and GRIB2', () => {
   // Absent python modules skip the tests locally and fail them in CI (toolAvailable throws there).
   const ready = haveOpen && toolAvailable('python', 'numpy') && toolAvailable('python', 'netCDF4');
   it.skipIf(!ready)('default parameters (kerosene, η = 0.3, RHi ≥ 100 %, 235 K)', async () => {
@@ -112,6 +115,10 @@ describe('products vs the numpy oracle on the demo NetCDF', () => {
   });
   it.skipIf(!ready)('other parameters (hydrogen fuel, η = 0.4, RHi ≥ 95 %, 230 K)', async () => {
     await compare({ ...DEFAULT_CRITERION, fuel: FUEL_PRESETS.hydrogen, efficiency: 0.4, iceThresholdPercent: 95, freezingTemperatureK: 230 }, 'hydrogen');
+  });
+  const gribReady = ready && toolAvailable('python', 'eccodes');
+  it.skipIf(!gribReady)('the GRIB2 twin of the demo, read by ecCodes in the oracle (default parameters)', async () => {
+    await compare(DEFAULT_CRITERION, 'grib', DEMO_GRIB);
   });
   if (!haveOpen) it.skip('lib/open.ts (the dataset API) is not there yet', () => {});
 });
