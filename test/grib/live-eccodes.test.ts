@@ -7,8 +7,8 @@ import { mkdtempSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
-import { buildGrid, gridLonLat, readGribIndex } from '../../lib/formats/grib/index.js';
-import { run, toolAvailable } from '../support/tools.js';
+import { buildGrid, gridLonLat, readGribIndex, scanGrib } from '../../lib/formats/grib/index.js';
+import { PYTHON, run, toolAvailable } from '../support/tools.js';
 import { firstMismatch, fixture } from './reference.js';
 
 function gribGetData(path: string): { lat: number[]; lon: number[]; values: (number | null)[] }[] {
@@ -65,5 +65,32 @@ describe('live ecCodes cross-check (grib_set repack, grib_get_data values)', () 
         if (Math.abs(lat[q]) < 89.99) expect(Math.abs(((((lon[q] - want[k].lon[src]) % 360) + 540) % 360) - 180)).toBeLessThan(5.1e-4);
       }
     }
+  });
+});
+
+describe('live: GRIB1 messages above 8 MB (large-message length convention)', () => {
+  it('scans two 12 MB GRIB1 messages written by python3-eccodes to the lengths ecCodes reports', async () => {
+    if (!toolAvailable('python', 'eccodes')) return;
+    const out = join(mkdtempSync(join(tmpdir(), 'frostgrid-live-')), 'large.grib1');
+    const script = `
+import sys, eccodes as ec, numpy as np
+h = ec.codes_grib_new_from_samples('GRIB1')
+for k, v in [('Ni', 2880), ('Nj', 1441), ('latitudeOfFirstGridPointInDegrees', 90.0), ('longitudeOfFirstGridPointInDegrees', 0.0),
+             ('latitudeOfLastGridPointInDegrees', -90.0), ('longitudeOfLastGridPointInDegrees', 359.875),
+             ('iDirectionIncrementInDegrees', 0.125), ('jDirectionIncrementInDegrees', 0.125), ('bitsPerValue', 24)]:
+    ec.codes_set(h, k, v)
+ec.codes_set_values(h, np.linspace(200, 300, 2880 * 1441))
+m = ec.codes_get_message(h)
+open(sys.argv[1], 'wb').write(b'junk' + m + m)
+print(ec.codes_get(h, 'totalLength'), int.from_bytes(m[4:7], 'big') & 0x800000)
+`;
+    const [total, flag] = run(PYTHON, ['-c', script, out]).trim().split(' ').map(Number);
+    expect(flag).toBe(0x800000); // the message does use the convention
+    const scan = await scanGrib(out);
+    expect(scan.problems).toEqual([]);
+    expect(scan.messages).toEqual([
+      { number: 1, offset: 4, length: total, edition: 1 },
+      { number: 2, offset: 4 + total, length: total, edition: 1 },
+    ]);
   });
 });
