@@ -36,7 +36,7 @@ Options:
   --bbox W,S,E,N              restrict the statistics to a box (degrees); rasters stay whole
   --keep-longitudes           keep 0..360 longitudes in the rasters (default: -180..180)
   --quicklook                 also write a PNG map per level
-  --quiet                     no progress bar
+  --quiet                     no progress bar and no notes (the output folders are still listed)
   --debug                     full error traces
 
 Example:
@@ -112,10 +112,8 @@ export async function masksCommand(args: readonly string[], io: CliIo): Promise<
         : undefined,
     });
     bar?.stop();
-    if (!flag(p, 'quiet')) {
-      for (const n of result.notes) io.stderr(`note: ${n}\n`);
-      for (const f of result.folders) io.stdout(`${f}\n`);
-    }
+    if (!flag(p, 'quiet')) for (const n of result.notes) io.stderr(`note: ${n}\n`);
+    for (const f of result.folders) io.stdout(`${f}\n`);
   } catch (e) {
     bar?.stop();
     throw e;
