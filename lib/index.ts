@@ -25,3 +25,12 @@ export { probe, fieldByName, nodeLocator, parseIsoTime, toRotated, fromRotated }
 export type { ProbePoint, ProbeRow, ProbeRequest } from './jobs/probe.js';
 export { runMaskJob, selectLevels, selectTimes, timeFolderName, compactTime, OUTPUT_FILES } from './jobs/masks.js';
 export type { MaskJobOptions, MaskJobResult, LevelSelection } from './jobs/masks.js';
+
+// Grid model helpers: field selection, zero-copy slice views, calendars, CF units.
+export { findField, findHumidity, type FindFieldOptions, type FindHumidityOptions, type HumidityQuantity } from './grid/select.js';
+export { sliceView, flipLatitude, northToSouth, rotateColumns, toLongitudeConvention, subBox, viewGet, isContiguous, contiguous, type SliceView } from './grid/view.js';
+export { decodeTimes, resolveCalendar, parseTimeUnits, calendarDate } from './grid/calendar.js';
+export { toSI, parseUnits, type SiTarget, type SiConversion } from './cf/units.js';
+
+// GRIB low-level access: message index, parameter tables, Gaussian latitudes.
+export { scanGrib, readGribIndex, describeParameter, gaussianLatitudes, type GribScan, type GribIndex } from './formats/grib/index.js';
