@@ -22,6 +22,7 @@
  * the frame at (λr, φr) is rotated about the y axis by θ = 90° + φp and then by λp about the polar
  * axis:  x' = cosθ·x − sinθ·z,  z' = sinθ·x + cosθ·z,  λ = atan2(y, x') + λp,  φ = asin z'.
  */
+import { UnsupportedError } from '../errors.js';
 import type { GaussianGrid, RegularLatLonGrid, RotatedLatLonGrid } from './types.js';
 
 export type RegridMethod = 'nearest' | 'bilinear';
@@ -191,7 +192,11 @@ export function regridGaussian(grid: GaussianGrid, method: RegridMethod): Regrid
 /** Regridder from a rotated latitude–longitude grid. */
 export function regridRotated(grid: RotatedLatLonGrid, method: RegridMethod): Regridder {
   if (grid.rotationAngle !== 0) {
-    throw new RangeError(`rotated grids with an angle of rotation (${grid.rotationAngle}°) are not regridded`);
+    throw new UnsupportedError(
+      `rotated grids with an angle of rotation (${grid.rotationAngle}°) are not regridded`,
+      'angle of rotation of a rotated grid',
+      grid.rotationAngle,
+    );
   }
   const { southPoleLat: spLat, southPoleLon: spLon } = grid;
   // Geographic box around all points, longitudes unwrapped about the centre point.

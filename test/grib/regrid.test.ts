@@ -157,3 +157,10 @@ describe('regridToLatLon, Gaussian grids', () => {
     expect(nan).toBeLessThan(12);
   });
 });
+
+describe('regridToLatLon, what it does not do', () => {
+  it('refuses a rotated grid with an angle of rotation, naming it', async () => {
+    const { grid } = await rotatedGrid();
+    expect(() => regridToLatLon({ ...grid, rotationAngle: 10 }, 'bilinear')).toThrow(/angle of rotation \(10°\)/);
+  });
+});
