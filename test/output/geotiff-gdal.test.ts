@@ -7,7 +7,7 @@ import { afterAll, describe, expect, it } from 'vitest';
 import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { fromFile } from 'geotiff';
-import { writeGeoTiff, type RasterDtype, type RasterProfile } from '../../lib/output/index.js';
+import { encodeGeoTiff, writeGeoTiff, type RasterDtype, type RasterProfile } from '../../lib/output/index.js';
 import { WGS84 } from '../../lib/grid/types.js';
 import { run } from '../support/tools.js';
 import { cogErrors, cogValidatorVerdict, gdalinfo, gdalReadBands, haveGdal, prng, removeDir, tempDir } from './gdal.js';
@@ -321,3 +321,15 @@ print(json.dumps([ds.GetRasterBand(i + 1).GetDescription() for i in range(len(t)
   });
 });
 
+
+describe('in-memory encoding', () => {
+  it.each(['uint8', 'int16', 'float32'] as const)('encodeGeoTiff gives the bytes writeGeoTiff writes (%s COG)', async (dtype) => {
+    const ctor = DTYPES.find((d) => d.dtype === dtype)!.ctor;
+    const bands = [3, 4].map((s) => field(ctor, dtype, 300, 280, s));
+    const profile: RasterProfile = { width: 300, height: 280, count: 2, dtype, crs: { epsg: 4326 }, transform: [0, 0.1, 0, 28, 0, -0.1], cog: true, blockSize: 128 };
+    const path = join(dir, `mem-${dtype}.tif`);
+    await writeGeoTiff(path, profile, bands, { bandDescriptions: ['x', 'y'] });
+    const mem = encodeGeoTiff(profile, bands, { bandDescriptions: ['x', 'y'] });
+    expect(Buffer.compare(Buffer.from(mem), readFileSync(path))).toBe(0);
+  });
+});
