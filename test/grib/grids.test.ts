@@ -35,3 +35,23 @@ describe.each(files)('%s: grid coordinates against ecCodes', (file) => {
     expect(worstLon).toBeLessThan(tol);
   });
 });
+
+describe('longitude numbering of regular grids (frostgrid convention, checked against the span)', () => {
+  const def = (lon1: number, lon2: number, ni: number) => ({
+    type: 'regular_ll' as const, template: '3.0', earth: { kind: 'sphere' as const, radiusM: 6371229 },
+    ni, nj: 2, lat1: 10, lon1, lat2: 0, lon2, di: NaN, dj: 10, scanningMode: 0,
+  });
+  it.each([
+    { lon1: 0, lon2: 359, ni: 360, first: 0, last: 359, conv: '0..360', global: true },
+    { lon1: 180, lon2: 179, ni: 360, first: -180, last: 179, conv: '-180..180', global: true },
+    { lon1: 340, lon2: 52.5, ni: 30, first: -20, last: 52.5, conv: '-180..180', global: false },
+    { lon1: 250, lon2: 300, ni: 11, first: 250, last: 300, conv: '0..360', global: false },
+  ])('$lon1 → $lon2 ($ni columns)', ({ lon1, lon2, ni, first, last, conv, global }) => {
+    const g = buildGrid(def(lon1, lon2, ni)).grid;
+    if (g.kind !== 'regular_ll') throw new Error('not regular');
+    expect(g.lon[0]).toBeCloseTo(first, 9);
+    expect(g.lon[ni - 1]).toBeCloseTo(last, 9);
+    expect(g.longitudeConvention).toBe(conv);
+    expect(g.globalLongitude).toBe(global);
+  });
+});

@@ -84,10 +84,9 @@ function longitudes(lon1: number, lon2: number, ni: number, di: number, iNeg: bo
   if (span === 0 && ni > 1) span = Number.isFinite(di) ? di * (ni - 1) : 360 - 360 / ni;
   const d = ni > 1 ? span / (ni - 1) : Number.isFinite(di) ? di : 0;
   let start = ((west % 360) + 360) % 360;
-  if (start + span > 360 + 1e-9 || start >= 180) {
-    // The columns cross 0° (or lie in the western hemisphere): number them −180..180.
-    if (start > 180) start -= 360;
-  }
+  // Columns that cross 0° are numbered from −180 when they fit there (e.g. 340..52.5 → −20..52.5,
+  // 180..179.75 → −180..179.75); otherwise 0..360 (and beyond 360 for the rare grid that fits neither).
+  if (start + span > 360 + 1e-9 && start - 360 >= -180 - 1e-9) start -= 360;
   const lon = new Float64Array(ni);
   for (let k = 0; k < ni; k++) lon[k] = Math.round((start + d * k) * 1e9) / 1e9;
   let maxLon = -Infinity;
