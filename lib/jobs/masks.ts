@@ -35,6 +35,7 @@ import {
   type Summary,
 } from '../products/index.js';
 import { rasterLayout, writeGeoTiff, writeQuicklook, type RasterLayout, type RasterMetadata } from '../output/index.js';
+import { regridToLatLon, type Regridder } from '../grid/regrid.js';
 import { VERSION } from '../version.js';
 import { parseIsoTime } from './probe.js';
 
@@ -233,7 +234,8 @@ async function runOnDataset(ds: GridDataset, options: MaskJobOptions): Promise<M
   const grid: HorizontalGrid = temperature.grid;
   const levelsPa = selectLevels(temperature, humidity.field, options.levels, ds.path);
   const times = selectTimes(temperature, humidity.field, options.times ?? [], ds.path);
-  const layout = rasterLayout(grid, { keepLongitude0To360: options.keepLongitude0To360 });
+  const raster = rasterPlan(grid, options.keepLongitude0To360 ?? false);
+  const layout = raster.layout;
   const weights = cellWeights(grid, options.bbox);
   const ws = new LevelWorkspace(grid.npoints);
   const criteria = levelsPa.map((p) => prepareLevel(p, params));
@@ -270,15 +272,15 @@ async function runOnDataset(ds: GridDataset, options: MaskJobOptions): Promise<M
         extrapolated ||= r.saturationExtrapolated;
         summary.addLevel(time, r);
         column.addLevel(k, ws.persistentContrail);
-        LAYERS.forEach((layer, li) => bands[li].push(layout.toRasterOrder(layer.pick(ws) as Float32Array)));
-        if (options.quicklook) await writeLevelQuicklooks(tmp, layout, ws, levelsPa[k], time);
+        LAYERS.forEach((layer, li) => bands[li].push(raster.toRaster(layer.pick(ws), layer.kind)));
+        if (options.quicklook) await writeLevelQuicklooks(tmp, raster, ws, levelsPa[k], time);
         options.progress?.(++done, total, `${time.valid.iso} ${levelsPa[k] / 100} hPa`);
       }
       const heights = heightProviderFor(ds, time, levelsPa, grid.npoints);
       const col = await column.finalize(heights);
       summary.setColumnHeightSource(time, col.heightSource);
       const built = summary.build();
-      const common = datasetItems(ds, params, humidity.conversion, time, extrapolated, options);
+      const common = { ...datasetItems(ds, params, humidity.conversion, time, extrapolated, options), ...raster.items };
       const descriptions = levelsPa.map(levelLabel);
       for (let li = 0; li < LAYERS.length; li++) {
         const layer = LAYERS[li];
@@ -294,7 +296,7 @@ async function runOnDataset(ds: GridDataset, options: MaskJobOptions): Promise<M
         layout,
         'float32',
         'continuous',
-        COLUMN_BANDS.map((b) => layout.toRasterOrder(col[b.key] as Float32Array)),
+        COLUMN_BANDS.map((b) => raster.toRaster(col[b.key] as Float32Array, 'mask')),
         {
           bandDescriptions: COLUMN_BANDS.map((b) => b.description),
           bandItems: COLUMN_BANDS.map((b) => ({ name: b.name })),
@@ -379,21 +381,63 @@ async function writeLayer(
   );
 }
 
-async function writeLevelQuicklooks(dir: string, layout: RasterLayout, ws: LevelWorkspace, pPa: number, time: TimeCoordinate): Promise<void> {
+/**
+ * How slices become rasters: grids an affine transform describes are only reordered north-up;
+ * Gaussian and rotated-pole grids are first regridded to a regular latitude–longitude grid,
+ * nearest neighbour for masks (and the column summary, derived from masks), bilinear for
+ * continuous fields, and the method is recorded in every file.
+ */
+interface RasterPlan {
+  readonly layout: RasterLayout;
+  toRaster(values: Float32Array | Uint8Array, kind: 'mask' | 'continuous'): Float32Array | Uint8Array;
+  readonly items: Record<string, string>;
+}
+
+function rasterPlan(grid: HorizontalGrid, keepLongitude0To360: boolean): RasterPlan {
+  if (grid.kind !== 'gaussian' && grid.kind !== 'rotated_ll') {
+    const layout = rasterLayout(grid, { keepLongitude0To360 });
+    return { layout, toRaster: (v) => layout.toRasterOrder(v as Float32Array), items: {} };
+  }
+  const nearest: Regridder = regridToLatLon(grid, 'nearest');
+  const bilinear: Regridder = regridToLatLon(grid, 'bilinear');
+  const layout = rasterLayout(nearest.target, { keepLongitude0To360 });
+  const describe =
+    grid.kind === 'gaussian'
+      ? `${grid.reduced ? (grid.octahedral ? 'octahedral reduced' : 'reduced') : 'regular'} Gaussian N${grid.N}`
+      : `rotated latitude-longitude (south pole ${grid.southPoleLat}, ${grid.southPoleLon})`;
+  return {
+    layout,
+    toRaster(values, kind) {
+      if (kind === 'mask') {
+        // Nearest neighbour keeps the mask values (0, 1, 255) exactly.
+        const f = nearest.apply(values);
+        const out = values instanceof Uint8Array ? Uint8Array.from(f) : f;
+        return layout.toRasterOrder(out as Float32Array);
+      }
+      return layout.toRasterOrder(bilinear.apply(values));
+    },
+    items: {
+      regridding: `${describe} regridded to a regular ${nearest.target.dLat.toFixed(4)}° x ${nearest.target.dLon.toFixed(4)}° latitude-longitude grid: nearest neighbour for masks and the column summary, bilinear for RHi and the formation margin; statistics are computed on the native grid`,
+    },
+  };
+}
+
+async function writeLevelQuicklooks(dir: string, raster: RasterPlan, ws: LevelWorkspace, pPa: number, time: TimeCoordinate): Promise<void> {
+  const layout = raster.layout;
   const qdir = join(dir, OUTPUT_FILES.quicklookDir);
   await mkdir(qdir, { recursive: true });
   const hPa = Math.round(pPa / 100);
   const base = { width: layout.width, height: layout.height, transform: layout.transform, crs: layout.crs };
   await writeQuicklook(join(qdir, `persistent-contrail-${hPa}hPa.png`), {
     ...base,
-    values: layout.toRasterOrder(ws.persistentContrail),
+    values: raster.toRaster(ws.persistentContrail, 'mask'),
     kind: 'mask',
     title: `persistent contrail  ${levelLabel(pPa)}  ${time.valid.iso}`,
     nodata: MASK_NODATA,
   });
   await writeQuicklook(join(qdir, `rhi-${hPa}hPa.png`), {
     ...base,
-    values: layout.toRasterOrder(ws.rhiPercent),
+    values: raster.toRaster(ws.rhiPercent, 'continuous'),
     kind: 'continuous',
     title: `RHi  ${levelLabel(pPa)}  ${time.valid.iso}`,
     units: '%',
