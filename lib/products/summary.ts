@@ -6,7 +6,7 @@
  * ```
  * { "input": "<file>",
  *   "parameters": { "fuel": {...}, "efficiency", "saturation", "ice_threshold_percent",
- *                   "freezing_temperature_K", "humidity_scale", "bbox" },
+ *                   "freezing_temperature_K", "humidity_scale", "humidity_cap", "bbox" },
  *   "times": [ { "time": "<ISO valid time>",
  *                "levels": [ { "pressure_hPa", "flight_level", "valid_cells",
  *                              "ice_supersaturated": { "cells", "fraction", "area_km2" },
@@ -51,6 +51,8 @@ export interface SummaryParameters {
   readonly ice_threshold_percent: number;
   readonly freezing_temperature_K: number;
   readonly humidity_scale: number;
+  /** What happens to F·e above water saturation. */
+  readonly humidity_cap: string;
   /** [W, S, E, N] degrees, or null for the whole grid. */
   readonly bbox: readonly [number, number, number, number] | null;
 }
@@ -110,6 +112,7 @@ export function summaryParameters(params: CriterionParameters, bbox?: BoundingBo
     ice_threshold_percent: params.iceThresholdPercent,
     freezing_temperature_K: params.freezingTemperatureK,
     humidity_scale: params.humidityScale,
+    humidity_cap: params.humidityScale === 1 ? 'none (scale off)' : 'scaled vapour pressure capped at water saturation (cells counted in capped_cells)',
     bbox: bbox ? [bbox.west, bbox.south, bbox.east, bbox.north] : null,
   };
 }
