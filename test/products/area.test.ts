@@ -145,6 +145,40 @@ describe('cell areas on the WGS84 ellipsoid', () => {
   });
 });
 
+describe('projected grids on the WGS84 ellipsoid', () => {
+  it('an equirectangular grid (PROJ eqc: x = aλ, y = aφ) has the zone-formula area of its lat/lon rectangle', () => {
+    // Cells of 0.1° × 0.1° between 40°N and 45°N, 0°E and 5°E: inverse-projected corners are exact
+    // lat/lon nodes, so the cells are ellipsoidal quadrangles with the closed-form zone area.
+    const step = (A * 0.1 * Math.PI) / 180;
+    const nx = 50;
+    const ny = 50;
+    const x = Float64Array.from({ length: nx }, (_, i) => (i + 0.5) * step);
+    const y = Float64Array.from({ length: ny }, (_, j) => (A * 45 * Math.PI) / 180 - (j + 0.5) * step);
+    const areas = cellAreas({
+      kind: 'projected',
+      crs: {
+        kind: 'projected',
+        projection: 'lambert_conformal_conic', // the kind label is not used by the area code; the proj4 string is
+        proj4: '+proj=eqc +lat_ts=0 +lat_0=0 +lon_0=0 +x_0=0 +y_0=0 +ellps=WGS84 +units=m +no_defs',
+        earth: WGS84,
+        params: {},
+      },
+      npoints: nx * ny,
+      nx,
+      ny,
+      x,
+      y,
+      dx: step,
+      dy: step,
+    });
+    const exp = ((zoneArea(45) - zoneArea(40)) * 5) / 360;
+    expect(Math.abs(sum(areas) - exp) / exp).toBeLessThan(1e-6); // measured 9e-8
+    // One cell: the 44.9°–45° row, 0.1° wide.
+    const cell = ((zoneArea(45) - zoneArea(44.9)) * 0.1) / 360;
+    expect(Math.abs(areas[0] - cell) / cell).toBeLessThan(1e-6); // measured 1.2e-7 (great-circle vs parallel edges)
+  });
+});
+
 describe('bounding boxes', () => {
   it('parses W,S,E,N and rejects malformed boxes', () => {
     expect(parseBoundingBox('-10,-5,10,5')).toEqual({ west: -10, south: -5, east: 10, north: 5 });
