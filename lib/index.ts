@@ -21,7 +21,8 @@ export * from './output/index.js';
 // Jobs: what the command line runs, usable from notebooks too.
 export { describeDataset, describeField, describeGrid, describeCrs, timeLabel } from './jobs/describe.js';
 export type { DatasetDescription, VariableDescription, GridDescription } from './jobs/describe.js';
-export { probe, fieldByName, nodeLocator, parseIsoTime, toRotated, fromRotated } from './jobs/probe.js';
+export { probe, fieldByName, nodeLocator, parseIsoTime } from './jobs/probe.js';
+export { regridToLatLon, rotatedToGeographic, geographicToRotated, type Regridder, type RegridMethod } from './grid/regrid.js';
 export type { ProbePoint, ProbeRow, ProbeRequest } from './jobs/probe.js';
 export { runMaskJob, selectLevels, selectTimes, timeFolderName, compactTime, OUTPUT_FILES } from './jobs/masks.js';
 export type { MaskJobOptions, MaskJobResult, LevelSelection } from './jobs/masks.js';

@@ -6,6 +6,7 @@
 import proj4 from 'proj4';
 import { AmbiguityError, MissingQuantityError, ParameterError } from '../errors.js';
 import type { Field, GridDataset, HorizontalGrid, Quantity } from '../grid/types.js';
+import { geographicToRotated, rotatedToGeographic } from '../grid/regrid.js';
 import { timeLabel } from './describe.js';
 
 export interface ProbePoint {
@@ -189,46 +190,13 @@ export function nodeLocator(grid: HorizontalGrid): (lat: number, lon: number) =>
     }
     case 'rotated_ll':
       return (lat, lon) => {
-        const [rlat, rlon] = toRotated(lat, lon, grid.southPoleLat, grid.southPoleLon, grid.rotationAngle);
+        const [rlon0, rlat] = geographicToRotated(lon, lat, grid.southPoleLat, grid.southPoleLon);
+        const rlon = rlon0 - grid.rotationAngle;
         const j = nearestInSorted(grid.rlat, rlat);
         const i = nearestLon(grid.rlon, rlon, 0, grid.nx, false);
         if (Math.abs(grid.rlat[j] - rlat) > grid.dLat || Math.abs(dLon(grid.rlon[i], rlon)) > grid.dLon) return undefined;
-        const [glat, glon] = fromRotated(grid.rlat[j], grid.rlon[i], grid.southPoleLat, grid.southPoleLon, grid.rotationAngle);
+        const [glon, glat] = rotatedToGeographic(grid.rlon[i] + grid.rotationAngle, grid.rlat[j], grid.southPoleLat, grid.southPoleLon);
         return { index: j * grid.nx + i, lat: glat, lon: glon };
       };
   }
-}
-
-const D = Math.PI / 180;
-
-/**
- * Geographic → rotated-pole coordinates for a frame whose south pole lies at (spLat, spLon)
- * (GRIB2 template 3.1 convention): rotate about the polar axis by spLon, then about the y axis by
- * 90° + spLat, then subtract the rotation angle.
- */
-export function toRotated(lat: number, lon: number, spLat: number, spLon: number, angle: number): [number, number] {
-  const phi = lat * D;
-  const lam = (lon - spLon) * D;
-  const x = Math.cos(phi) * Math.cos(lam);
-  const y = Math.cos(phi) * Math.sin(lam);
-  const z = Math.sin(phi);
-  const th = (90 + spLat) * D;
-  const xr = Math.cos(th) * x + Math.sin(th) * z;
-  const zr = -Math.sin(th) * x + Math.cos(th) * z;
-  return [Math.asin(Math.max(-1, Math.min(1, zr))) / D, Math.atan2(y, xr) / D - angle];
-}
-
-/** The inverse of toRotated. */
-export function fromRotated(rlat: number, rlon: number, spLat: number, spLon: number, angle: number): [number, number] {
-  const phi = rlat * D;
-  const lam = (rlon + angle) * D;
-  const xr = Math.cos(phi) * Math.cos(lam);
-  const y = Math.cos(phi) * Math.sin(lam);
-  const zr = Math.sin(phi);
-  const th = (90 + spLat) * D;
-  const x = Math.cos(th) * xr - Math.sin(th) * zr;
-  const z = Math.sin(th) * xr + Math.cos(th) * zr;
-  let lon = Math.atan2(y, x) / D + spLon;
-  lon = ((((lon + 180) % 360) + 360) % 360) - 180;
-  return [Math.asin(Math.max(-1, Math.min(1, z))) / D, lon];
 }
