@@ -17,3 +17,4 @@ export {
   type QuicklookImage,
   type QuicklookGeometry,
 } from './quicklook/index.js';
+export { GeoTiffBandWriter, openGeoTiffWriter } from './geotiff/index.js';

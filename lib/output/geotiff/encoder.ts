@@ -16,7 +16,7 @@ import { chunkGrid, encodeChunks, encodeChunksSync } from './chunks.js';
 import { geoKeysFor, modelTags } from './georef.js';
 import { gdalMetadataXml, gdalNodataText } from './gdalMetadata.js';
 import { asciiBytes, ifdByteLength, writeIfd, type IfdEntry } from './ifd.js';
-import { overviewBands, overviewLevels } from './overviews.js';
+import { overviewBands, overviewLevels, type OverviewLevel } from './overviews.js';
 import type { RasterArray, RasterMetadata, RasterProfile, ResolvedProfile } from './profile.js';
 import { prepareBands, resolveProfile } from './profile.js';
 import {
@@ -64,23 +64,28 @@ function structuralMetadata(): Uint8Array {
   return asciiBytes(head + body).subarray(0, head.length + body.length);
 }
 
-interface Image {
+/** One image of the file (the main image or an overview): its chunk geometry and encoded chunks, band-major. */
+export interface Image {
   readonly grid: ChunkGrid;
   readonly chunks: Uint8Array[];
   readonly overview: boolean;
 }
 
-interface Prepared {
+/** Everything the file needs besides its pixels: the checked profile and the tags of the IFDs. */
+export interface TiffHead {
   readonly p: ResolvedProfile;
-  readonly levels: { width: number; height: number; bands: RasterArray[]; overview: boolean }[];
+  /** Chunk geometry of each image: the main image, then (cloud-optimized) each overview level. */
+  readonly grids: { readonly grid: ChunkGrid; readonly overview: boolean }[];
+  /** The overview levels of the cloud-optimized layout (empty otherwise). */
+  readonly overviewLevels: readonly OverviewLevel[];
   readonly mainExtra: IfdEntry[];
   readonly nodataEntry?: IfdEntry;
 }
 
-function prepare(profile: RasterProfile, bands: readonly ArrayLike<number>[], metadata: RasterMetadata | undefined): Prepared {
+/** Checks the profile and builds the tags that do not depend on the pixels. */
+export function prepareHead(profile: RasterProfile, metadata: RasterMetadata | undefined): TiffHead {
   if (!HOST_LITTLE_ENDIAN) throw new UnsupportedError('the GeoTIFF encoder needs a little-endian host', 'host byte order', 'big-endian');
   const p = resolveProfile(profile);
-  const typed = prepareBands(p, bands);
   const geo = geoKeysFor(p.crs);
   const model = modelTags(p.transform);
   const mainExtra: IfdEntry[] = [];
@@ -94,14 +99,30 @@ function prepare(profile: RasterProfile, bands: readonly ArrayLike<number>[], me
   if (xml !== undefined) mainExtra.push({ tag: Tag.GDAL_METADATA, type: FieldType.ASCII, values: asciiBytes(xml) });
   const nodataEntry: IfdEntry | undefined =
     p.nodata === undefined ? undefined : { tag: Tag.GDAL_NODATA, type: FieldType.ASCII, values: asciiBytes(gdalNodataText(p.nodata)) };
+  const ovLevels = p.cog ? overviewLevels(p.width, p.height, p.blockSize) : [];
+  const grids = [
+    { grid: chunkGrid(p.width, p.height, p), overview: false },
+    ...ovLevels.map((lv) => ({ grid: chunkGrid(lv.width, lv.height, p), overview: true })),
+  ];
+  return { p, grids, overviewLevels: ovLevels, mainExtra, nodataEntry };
+}
 
-  const levels: Prepared['levels'] = [{ width: p.width, height: p.height, bands: typed, overview: false }];
-  if (p.cog) {
-    const ovLevels = overviewLevels(p.width, p.height, p.blockSize);
-    const perBand = typed.map((b) => overviewBands(b, p.width, p.height, ovLevels, p));
-    ovLevels.forEach((lv, k) => levels.push({ width: lv.width, height: lv.height, overview: true, bands: perBand.map((o) => o[k]) }));
-  }
-  return { p, levels, mainExtra, nodataEntry };
+/** One band at every resolution of the file: the band itself, then each overview level. */
+export function bandLevels(head: TiffHead, band: RasterArray): RasterArray[] {
+  const { p } = head;
+  return head.overviewLevels.length === 0 ? [band] : [band, ...overviewBands(band, p.width, p.height, head.overviewLevels, p)];
+}
+
+interface Prepared {
+  readonly head: TiffHead;
+  /** levels[image][band]: the pixels of each image, band by band. */
+  readonly levels: RasterArray[][];
+}
+
+function prepare(profile: RasterProfile, bands: readonly ArrayLike<number>[], metadata: RasterMetadata | undefined): Prepared {
+  const head = prepareHead(profile, metadata);
+  const perBand = prepareBands(head.p, bands).map((b) => bandLevels(head, b));
+  return { head, levels: head.grids.map((_, k) => perBand.map((lv) => lv[k])) };
 }
 
 function imageEntries(img: Image, p: ResolvedProfile, extra: IfdEntry[], big: boolean): { entries: IfdEntry[]; offsets: IfdEntry } {
@@ -147,7 +168,7 @@ function imageEntries(img: Image, p: ResolvedProfile, extra: IfdEntry[], big: bo
   return { entries, offsets };
 }
 
-function layout(prep: Prepared, images: Image[], big: boolean): EncodedTiff {
+function layout(prep: TiffHead, images: Image[], big: boolean): EncodedTiff {
   const { p } = prep;
   const header = big ? 16 : 8;
   const ghost = p.cog ? structuralMetadata() : new Uint8Array(0);
@@ -203,7 +224,8 @@ function layout(prep: Prepared, images: Image[], big: boolean): EncodedTiff {
   return { parts, bytes: pos, bigTiff: big };
 }
 
-function finish(prep: Prepared, images: Image[], options: EncodeOptions): EncodedTiff {
+/** Lays the images out as one file (see the file comment): classic TIFF when it fits, else BigTIFF. */
+export function finish(prep: TiffHead, images: Image[], options: EncodeOptions): EncodedTiff {
   const threshold = options.bigTiffThresholdBytes ?? CLASSIC_MAX_BYTES;
   const classic = layout(prep, images, false);
   if (classic.bytes <= threshold && classic.bytes <= CLASSIC_MAX_BYTES) return classic;
@@ -217,13 +239,12 @@ export async function encodeGeoTiffParts(
   metadata?: RasterMetadata,
   options: EncodeOptions = {},
 ): Promise<EncodedTiff> {
-  const prep = prepare(profile, bands, metadata);
+  const { head, levels } = prepare(profile, bands, metadata);
   const images: Image[] = [];
-  for (const lv of prep.levels) {
-    const grid = chunkGrid(lv.width, lv.height, prep.p);
-    images.push({ grid, chunks: await encodeChunks(lv.bands, grid, prep.p), overview: lv.overview });
+  for (const [k, { grid, overview }] of head.grids.entries()) {
+    images.push({ grid, chunks: await encodeChunks(levels[k], grid, head.p), overview });
   }
-  return finish(prep, images, options);
+  return finish(head, images, options);
 }
 
 /** Encodes a GeoTIFF in memory, synchronously (bands in raster order, one typed array each). */
@@ -233,12 +254,9 @@ export function encodeGeoTiff(
   metadata?: RasterMetadata,
   options: EncodeOptions = {},
 ): Uint8Array {
-  const prep = prepare(profile, bands, metadata);
-  const images = prep.levels.map((lv) => {
-    const grid = chunkGrid(lv.width, lv.height, prep.p);
-    return { grid, chunks: encodeChunksSync(lv.bands, grid, prep.p), overview: lv.overview };
-  });
-  const enc = finish(prep, images, options);
+  const { head, levels } = prepare(profile, bands, metadata);
+  const images = head.grids.map(({ grid, overview }, k) => ({ grid, chunks: encodeChunksSync(levels[k], grid, head.p), overview }));
+  const enc = finish(head, images, options);
   const out = new Uint8Array(enc.bytes);
   let at = 0;
   for (const part of enc.parts) {

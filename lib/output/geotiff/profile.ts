@@ -196,33 +196,34 @@ export function resolveProfile(profile: RasterProfile): ResolvedProfile {
 }
 
 /**
- * Checks the bands against the profile and returns them as typed arrays of the profile's type
- * (the caller's arrays are used as they are when already of that type).
+ * Checks one band (number `index`, from 0) against the profile and returns it as a typed array of
+ * the profile's type (the caller's array is used as it is when already of that type).
  */
+export function prepareBand(p: ResolvedProfile, band: ArrayLike<number>, index: number): RasterArray {
+  const n = p.width * p.height;
+  if (band === null || band === undefined || band.length !== n) {
+    throw new OutputError(`band ${index + 1} has ${band?.length ?? 0} values but a ${p.width} × ${p.height} raster needs ${n}`);
+  }
+  if (p.info.is(band)) return band as RasterArray;
+  const out = p.info.create(n);
+  if (p.info.kind === 'float') {
+    for (let i = 0; i < n; i++) out[i] = band[i];
+    return out;
+  }
+  for (let i = 0; i < n; i++) {
+    const v = band[i];
+    if (!Number.isInteger(v) || v < p.info.min || v > p.info.max) {
+      throw new OutputError(`band ${index + 1} value ${v} at pixel ${i} cannot be stored as ${p.dtype}`);
+    }
+    out[i] = v;
+  }
+  return out;
+}
+
+/** Checks the bands against the profile and returns them as typed arrays (see prepareBand). */
 export function prepareBands(p: ResolvedProfile, bands: readonly ArrayLike<number>[]): RasterArray[] {
   if (!Array.isArray(bands) || bands.length !== p.count) {
     throw new OutputError(`the profile has ${p.count} band(s) but ${Array.isArray(bands) ? bands.length : 'no array of'} band(s) were given`);
   }
-  const n = p.width * p.height;
-  return bands.map((band, b) => {
-    if (band === null || band === undefined || band.length !== n) {
-      throw new OutputError(
-        `band ${b + 1} has ${band?.length ?? 0} values but a ${p.width} × ${p.height} raster needs ${n}`,
-      );
-    }
-    if (p.info.is(band)) return band as RasterArray;
-    const out = p.info.create(n);
-    if (p.info.kind === 'float') {
-      for (let i = 0; i < n; i++) out[i] = band[i];
-      return out;
-    }
-    for (let i = 0; i < n; i++) {
-      const v = band[i];
-      if (!Number.isInteger(v) || v < p.info.min || v > p.info.max) {
-        throw new OutputError(`band ${b + 1} value ${v} at pixel ${i} cannot be stored as ${p.dtype}`);
-      }
-      out[i] = v;
-    }
-    return out;
-  });
+  return bands.map((band, b) => prepareBand(p, band, b));
 }
