@@ -7,7 +7,9 @@
 
 import { TRIPLE_POINT_T } from './constants.js';
 import { criticalTemperatureFrom, mixingLineSlope, thresholdTemperature, validateCriterionParameters, type CriterionParameters } from './criterion.js';
-import { lnIce, lnWater } from './saturation-formulas.js';
+import { CODE_MURPHY_KOOP, lnIce, lnIceMurphyKoop, lnWater, lnWaterMurphyKoop } from './saturation-formulas.js';
+
+const LN_100 = Math.log(100);
 import { checkLengths, commonRange, extrapolationRange, formulationCode, type SaturationFormulation } from './saturation.js';
 
 /**
@@ -153,6 +155,8 @@ export function evaluateLevel(
   const margin = out.formationMarginK;
   checkLengths(n, vapourPressurePa.length, out.rhiPercent.length, out.iceSupersaturated.length, out.contrailForming.length, out.persistentContrail.length, margin === undefined ? n : margin.length);
   const code = formulationCode(params.saturation);
+  // the default formulation is called directly (inlined); the others through the switch
+  const mk = code === CODE_MURPHY_KOOP;
   const [lo, hi] = commonRange(params.saturation);
   const G = level.mixingLineSlopePaPerK;
   const tlm = level.thresholdTemperatureK;
@@ -167,7 +171,88 @@ export function evaluateLevel(
   const iss = out.iceSupersaturated;
   const form = out.contrailForming;
   const pers = out.persistentContrail;
-  const table = level.criticalDepressionTableK;
+  const counts = COUNTS;
+  counts.fill(0);
+  if (mk && !scaled && margin === undefined) {
+    plainLoopMurphyKoop(T, E, rhi, iss, form, pers, lo, hi, G, tlm, ewTlm, thr, tFreeze, counts);
+  } else {
+    fullLoop(T, E, rhi, iss, form, pers, margin, level.criticalDepressionTableK, mk, code, lo, hi, G, tlm, ewTlm, thr, tFreeze, F, counts);
+  }
+  return {
+    valid: counts[0],
+    iceSupersaturated: counts[1],
+    contrailForming: counts[2],
+    persistentContrail: counts[3],
+    outOfRange: counts[4],
+    cappedCells: counts[5],
+  };
+}
+
+/** Counters shared by the loops: valid, ice-supersaturated, forming, persistent, out of range, capped. */
+const COUNTS = new Float64Array(6);
+
+/*
+ * The two loops below implement the semantics documented on evaluateLevel. plainLoopMurphyKoop is
+ * the common case (default formulation, F = 1, no margin layer): no e_w per cell and the
+ * Murphy–Koop ice formula called directly so that it is inlined. fullLoop serves every other case.
+ * Tests check that both give identical RHi and masks.
+ */
+function plainLoopMurphyKoop(
+  T: Float32Array, E: Float32Array, rhi: Float32Array, iss: Uint8Array, form: Uint8Array, pers: Uint8Array,
+  lo: number, hi: number, G: number, tlm: number, ewTlm: number, thr: number, tFreeze: number,
+  counts: Float64Array,
+): void {
+  const n = T.length;
+  const ln100 = LN_100; // locals, not module bindings, inside the loop
+  const tTriple = TRIPLE_POINT_T;
+  let valid = 0;
+  let nIss = 0;
+  let nForm = 0;
+  let nPers = 0;
+  let nOut = 0;
+  for (let i = 0; i < n; i++) {
+    const t = T[i];
+    const e = E[i];
+    if (!(t >= lo && t <= hi && e >= 0 && e < Infinity)) {
+      rhi[i] = NaN;
+      iss[i] = 255;
+      form[i] = 255;
+      pers[i] = 255;
+      if (t === t && e === e) nOut++;
+      continue;
+    }
+    valid++;
+    // RHi = 100 e/e_i = e exp(ln 100 − ln e_i): one exp, no division
+    const r = e * Math.exp(ln100 - lnIceMurphyKoop(t));
+    rhi[i] = r;
+    const isIce = r >= thr && t < tTriple;
+    const isForm = t <= tlm && e >= ewTlm - G * (tlm - t);
+    const isPers = isForm && isIce && t < tFreeze;
+    iss[i] = isIce ? 1 : 0;
+    form[i] = isForm ? 1 : 0;
+    pers[i] = isPers ? 1 : 0;
+    if (isIce) nIss++;
+    if (isForm) nForm++;
+    if (isPers) nPers++;
+  }
+  counts[0] = valid;
+  counts[1] = nIss;
+  counts[2] = nForm;
+  counts[3] = nPers;
+  counts[4] = nOut;
+}
+
+function fullLoop(
+  T: Float32Array, E: Float32Array, rhi: Float32Array, iss: Uint8Array, form: Uint8Array, pers: Uint8Array,
+  margin: Float32Array | undefined, table: Float64Array,
+  mk: boolean, code: number, lo: number, hi: number, G: number, tlm: number, ewTlm: number, thr: number, tFreeze: number,
+  F: number, counts: Float64Array,
+): void {
+  const n = T.length;
+  const ln100 = LN_100;
+  const tTriple = TRIPLE_POINT_T;
+  const scaled = F !== 1;
+  const needEw = scaled || margin !== undefined;
   const last = table.length - 1;
   let valid = 0;
   let nIss = 0;
@@ -189,7 +274,7 @@ export function evaluateLevel(
     }
     valid++;
     let ew = 0;
-    if (scaled || margin !== undefined) ew = Math.exp(lnWater(code, t));
+    if (needEw) ew = Math.exp(mk ? lnWaterMurphyKoop(t) : lnWater(code, t));
     if (scaled) {
       e *= F;
       if (e > ew) {
@@ -197,9 +282,9 @@ export function evaluateLevel(
         nCap++;
       }
     }
-    const r = (100 * e) / Math.exp(lnIce(code, t));
+    const r = e * Math.exp(ln100 - (mk ? lnIceMurphyKoop(t) : lnIce(code, t)));
     rhi[i] = r;
-    const isIce = r >= thr && t < TRIPLE_POINT_T;
+    const isIce = r >= thr && t < tTriple;
     const isForm = t <= tlm && e >= ewTlm - G * (tlm - t);
     const isPers = isForm && isIce && t < tFreeze;
     iss[i] = isIce ? 1 : 0;
@@ -220,5 +305,10 @@ export function evaluateLevel(
       margin[i] = tlc - t;
     }
   }
-  return { valid, iceSupersaturated: nIss, contrailForming: nForm, persistentContrail: nPers, outOfRange: nOut, cappedCells: nCap };
+  counts[0] = valid;
+  counts[1] = nIss;
+  counts[2] = nForm;
+  counts[3] = nPers;
+  counts[4] = nOut;
+  counts[5] = nCap;
 }

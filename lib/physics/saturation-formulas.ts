@@ -101,11 +101,33 @@ const MA_ILN0 = Math.log(611.21);
 const MA_IA = 22.587;
 const MA_IB = 273.86;
 
+/*
+ * The two Murphy–Koop functions below write the coefficients of eqs. (7) and (10) (the MK_*
+ * constants above) as literals: V8 folds literals into the machine code of hot loops, whereas
+ * module-level constants are loaded from the module context on every cell. The derivative tests
+ * (analytic dLn* from the MK_* constants against finite differences of these) keep the two copies
+ * equal.
+ */
+
+/** ln(e_i/Pa) over ice, Murphy & Koop (2005) eq. (7); small enough to be inlined into hot loops. */
+export function lnIceMurphyKoop(t: number): number {
+  return 9.550426 - 5723.265 / t + 3.53068 * Math.log(t) - 0.00728332 * t;
+}
+
+/** ln(e_w/Pa) over liquid water, Murphy & Koop (2005) eq. (10); small enough to be inlined into hot loops. */
+export function lnWaterMurphyKoop(t: number): number {
+  const lt = Math.log(t);
+  return (
+    54.842763 - 6763.22 / t - 4.21 * lt + 0.000367 * t +
+    Math.tanh(0.0415 * (t - 218.8)) * (53.878 - 1331.22 / t - 9.44523 * lt + 0.014025 * t)
+  );
+}
+
 /** ln(e_i/Pa) over ice for formulation `code` at T (K); no range check. */
 export function lnIce(code: number, t: number): number {
   switch (code) {
     case CODE_MURPHY_KOOP:
-      return MK_I0 + MK_I1 / t + MK_I2 * Math.log(t) + MK_I3 * t;
+      return lnIceMurphyKoop(t);
     case CODE_SONNTAG:
       return SO_IA / t + SO_IB + t * (SO_IC + SO_ID * t) + SO_IE * Math.log(t);
     case CODE_GOFF_GRATCH: {
@@ -152,13 +174,8 @@ export function dLnIce(code: number, t: number): number {
 /** ln(e_w/Pa) over liquid water for formulation `code` at T (K); no range check. */
 export function lnWater(code: number, t: number): number {
   switch (code) {
-    case CODE_MURPHY_KOOP: {
-      const lt = Math.log(t);
-      return (
-        MK_W0 + MK_W1 / t + MK_W2 * lt + MK_W3 * t +
-        Math.tanh(MK_WK * (t - MK_WT)) * (MK_W4 + MK_W5 / t + MK_W6 * lt + MK_W7 * t)
-      );
-    }
+    case CODE_MURPHY_KOOP:
+      return lnWaterMurphyKoop(t);
     case CODE_SONNTAG:
       return SO_WA / t + SO_WB + t * (SO_WC + SO_WD * t) + SO_WE * Math.log(t);
     case CODE_GOFF_GRATCH: {

@@ -211,9 +211,27 @@ describe('evaluateLevel semantics', () => {
       const e = Float32Array.from([1, 3, 20]);
       const out = outputs(3);
       evaluateLevel(T, e, l, params, out);
-      for (let i = 0; i < 3; i++) expect(out.rhiPercent[i]).toBe(Math.fround((100 * e[i]) / saturationPressureIce(T[i], f)));
+      // float32 storage: within 1e-7 relative
+      for (let i = 0; i < 3; i++) expect(relErr(out.rhiPercent[i], (100 * e[i]) / saturationPressureIce(T[i], f))).toBeLessThan(1e-7);
       if (f !== 'murphy-koop') expect(() => evaluateLevel(T, e, lev, params, out)).toThrow(/level was prepared with saturation "murphy-koop" but params.saturation is/);
     }
+  });
+  it('the fast path (murphy-koop, F = 1, no margin) and the general path give identical RHi and masks', () => {
+    const n = 20000;
+    const T = Float32Array.from({ length: n }, (_, i) => 195 + (i % 400) * 0.2 + (i % 7 === 0 ? NaN : 0));
+    const e = Float32Array.from({ length: n }, (_, i) => ((i * 7919) % 1300) / 1000 * saturationPressureIce(195 + (i % 400) * 0.2));
+    const fast = outputs(n, false);
+    const full = outputs(n, true);
+    const cf = evaluateLevel(T, e, lev, PARAMS, fast);
+    const cg = evaluateLevel(T, e, lev, PARAMS, full);
+    expect(cf).toEqual(cg);
+    expect(cf.valid).toBeGreaterThan(0);
+    expect(cf.contrailForming).toBeGreaterThan(0);
+    expect(cf.persistentContrail).toBeGreaterThan(0);
+    expect(full.rhiPercent).toEqual(fast.rhiPercent);
+    expect(full.iceSupersaturated).toEqual(fast.iceSupersaturated);
+    expect(full.contrailForming).toEqual(fast.contrailForming);
+    expect(full.persistentContrail).toEqual(fast.persistentContrail);
   });
   it('rejects arrays of different lengths', () => {
     expect(() => evaluateLevel(new Float32Array(3), new Float32Array(2), lev, PARAMS, outputs(3))).toThrow(/array lengths differ/);
