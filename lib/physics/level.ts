@@ -203,8 +203,10 @@ function plainLoopMurphyKoop(
   counts: Float64Array,
 ): void {
   const n = T.length;
-  const ln100 = LN_100; // locals, not module bindings, inside the loop
+  // locals, not module bindings, inside the loop (an imported binding is reloaded on every use)
+  const ln100 = LN_100;
   const tTriple = TRIPLE_POINT_T;
+  const lnIceMK = lnIceMurphyKoop;
   let valid = 0;
   let nIss = 0;
   let nForm = 0;
@@ -223,7 +225,7 @@ function plainLoopMurphyKoop(
     }
     valid++;
     // RHi = 100 e/e_i = e exp(ln 100 − ln e_i): one exp, no division
-    const r = e * Math.exp(ln100 - lnIceMurphyKoop(t));
+    const r = e * Math.exp(ln100 - lnIceMK(t));
     rhi[i] = r;
     const isIce = r >= thr && t < tTriple;
     const isForm = t <= tlm && e >= ewTlm - G * (tlm - t);
@@ -251,6 +253,10 @@ function fullLoop(
   const n = T.length;
   const ln100 = LN_100;
   const tTriple = TRIPLE_POINT_T;
+  const lnIceMK = lnIceMurphyKoop;
+  const lnWaterMK = lnWaterMurphyKoop;
+  const lnIceAny = lnIce;
+  const lnWaterAny = lnWater;
   const scaled = F !== 1;
   const needEw = scaled || margin !== undefined;
   const last = table.length - 1;
@@ -274,7 +280,7 @@ function fullLoop(
     }
     valid++;
     let ew = 0;
-    if (needEw) ew = Math.exp(mk ? lnWaterMurphyKoop(t) : lnWater(code, t));
+    if (needEw) ew = Math.exp(mk ? lnWaterMK(t) : lnWaterAny(code, t));
     if (scaled) {
       e *= F;
       if (e > ew) {
@@ -282,7 +288,7 @@ function fullLoop(
         nCap++;
       }
     }
-    const r = e * Math.exp(ln100 - (mk ? lnIceMurphyKoop(t) : lnIce(code, t)));
+    const r = e * Math.exp(ln100 - (mk ? lnIceMK(t) : lnIceAny(code, t)));
     rhi[i] = r;
     const isIce = r >= thr && t < tTriple;
     const isForm = t <= tlm && e >= ewTlm - G * (tlm - t);
