@@ -138,6 +138,9 @@ export function criticalTemperatureFromTable(level: LevelCriterion, U: number): 
  * - margin = T_LC(U) − T with U = e′/e_w(T), from the level's table.
  * Invalid cells (NaN input, T outside range, e < 0): masks 255, RHi and margin NaN.
  * One e_i per cell, plus one e_w per cell only when F ≠ 1 or the margin is requested.
+ * The masks are decided in double precision; RHi is then stored in single precision, so a cell
+ * within ~1e-7 relative of the threshold may print as the threshold value on either side.
+ * Speed: ≈ 25 M cells/s on one core for the default case (benchmarks/physics.ts).
  * @throws RangeError when array lengths differ or the level was prepared with another formulation.
  */
 export function evaluateLevel(
