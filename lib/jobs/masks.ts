@@ -19,10 +19,8 @@ import { flightLevelFromPressure, prepareLevel, validateCriterionParameters } fr
 import {
   COLUMN_BANDS,
   ColumnAccumulator,
-  LevelWorkspace,
   SummaryBuilder,
   cellWeights,
-  evaluateFieldLevel,
   heightProviderFor,
   humidityRecord,
   levelIndexOf,
@@ -38,6 +36,7 @@ import { rasterLayout, writeGeoTiff, writeQuicklook, type RasterLayout, type Ras
 import { regridToLatLon, type Regridder } from '../grid/regrid.js';
 import { VERSION } from '../version.js';
 import { parseIsoTime } from './probe.js';
+import { defaultWorkerCount, inProcessEvaluator, workerPoolEvaluator, type EvaluatedLevel, type LevelArrays, type LevelEvaluator } from './level-evaluator.js';
 
 /** Pressure levels to evaluate, in hPa: single values and inclusive ranges. */
 export interface LevelSelection {
@@ -58,6 +57,11 @@ export interface MaskJobOptions {
   readonly rhConvention?: RhConvention;
   readonly temperatureVariable?: string;
   readonly humidityVariable?: string;
+  /**
+   * Worker threads evaluating slices (0: on the calling thread). Default: both cores for large
+   * jobs (≥ 4 million cells in all), none for small ones.
+   */
+  readonly workers?: number;
   /** Called after each (time, level) slice. */
   readonly progress?: (done: number, total: number, label: string) => void;
   readonly warn?: WarningSink;
@@ -88,6 +92,9 @@ const MASK_NODATA = 255;
 
 export async function runMaskJob(options: MaskJobOptions): Promise<MaskJobResult> {
   validateCriterionParameters(options.criterion);
+  if (options.workers !== undefined && !(Number.isInteger(options.workers) && options.workers >= 0 && options.workers <= 64)) {
+    throw new ParameterError(`workers must be a whole number from 0 to 64, got ${options.workers}`, 'workers', { file: options.input });
+  }
   const ds = await open(options.input, {
     variables: options.temperatureVariable ? { air_temperature: options.temperatureVariable } : undefined,
     rhConvention: options.rhConvention,
@@ -209,7 +216,7 @@ interface LayerSpec {
   readonly units: string;
   readonly dtype: 'uint8' | 'float32';
   readonly kind: 'mask' | 'continuous';
-  readonly pick: (ws: LevelWorkspace) => Uint8Array | Float32Array;
+  readonly pick: (a: LevelArrays) => Uint8Array | Float32Array;
 }
 
 const LAYERS: readonly LayerSpec[] = [
@@ -235,10 +242,45 @@ async function runOnDataset(ds: GridDataset, options: MaskJobOptions): Promise<M
   const levelsPa = selectLevels(temperature, humidity.field, options.levels, ds.path);
   const times = selectTimes(temperature, humidity.field, options.times ?? [], ds.path);
   const raster = rasterPlan(grid, options.keepLongitude0To360 ?? false);
-  const layout = raster.layout;
   const weights = cellWeights(grid, options.bbox);
-  const ws = new LevelWorkspace(grid.npoints);
   const criteria = levelsPa.map((p) => prepareLevel(p, params));
+  const workers = options.workers ?? defaultWorkerCount(grid.npoints * levelsPa.length * times.length);
+  const evaluator: LevelEvaluator =
+    workers > 0
+      ? await workerPoolEvaluator(
+          {
+            path: ds.path,
+            temperatureVariable: temperature.name,
+            humidityVariable: humidity.variable,
+            rhConvention: humidity.convention ?? options.rhConvention,
+            params,
+            bbox: options.bbox,
+            levelsPa,
+          },
+          workers,
+        )
+      : inProcessEvaluator(temperature, humidity, params, weights, criteria);
+  try {
+    return await evaluateAll(ds, options, { temperature, humidity, grid, levelsPa, times, raster, evaluator });
+  } finally {
+    await evaluator.close();
+  }
+}
+
+interface JobPlan {
+  readonly temperature: Field;
+  readonly humidity: ReturnType<typeof selectHumidity>;
+  readonly grid: HorizontalGrid;
+  readonly levelsPa: number[];
+  readonly times: TimeCoordinate[];
+  readonly raster: RasterPlan;
+  readonly evaluator: LevelEvaluator;
+}
+
+async function evaluateAll(ds: GridDataset, options: MaskJobOptions, plan: JobPlan): Promise<MaskJobResult> {
+  const { humidity, grid, levelsPa, times, raster, evaluator } = plan;
+  const params = options.criterion;
+  const layout = raster.layout;
   const notes = [...ds.notes];
   const total = times.length * levelsPa.length;
   let done = 0;
@@ -267,13 +309,21 @@ async function runOnDataset(ds: GridDataset, options: MaskJobOptions): Promise<M
       const bands: (Uint8Array | Float32Array)[][] = LAYERS.map(() => []);
       const column = new ColumnAccumulator(grid.npoints, levelsPa);
       let extrapolated = false;
+      const queue: Promise<EvaluatedLevel>[] = [];
+      let asked = 0;
       for (let k = 0; k < levelsPa.length; k++) {
-        const r = await evaluateFieldLevel(ws, temperature, humidity, time, levelsPa[k], params, weights, criteria[k]);
+        while (asked < levelsPa.length && queue.length < evaluator.concurrency) {
+          const p = evaluator.evaluate(time, levelsPa[asked], asked);
+          p.catch(() => undefined); // awaited below, in order
+          queue.push(p);
+          asked++;
+        }
+        const { result: r, arrays } = await (queue.shift() as Promise<EvaluatedLevel>);
         extrapolated ||= r.saturationExtrapolated;
         summary.addLevel(time, r);
-        column.addLevel(k, ws.persistentContrail);
-        LAYERS.forEach((layer, li) => bands[li].push(raster.toRaster(layer.pick(ws), layer.kind)));
-        if (options.quicklook) await writeLevelQuicklooks(tmp, raster, ws, levelsPa[k], time);
+        column.addLevel(k, arrays.persistentContrail);
+        LAYERS.forEach((layer, li) => bands[li].push(raster.toRaster(layer.pick(arrays), layer.kind)));
+        if (options.quicklook) await writeLevelQuicklooks(tmp, raster, arrays, levelsPa[k], time);
         options.progress?.(++done, total, `${time.valid.iso} ${levelsPa[k] / 100} hPa`);
       }
       const heights = heightProviderFor(ds, time, levelsPa, grid.npoints);
@@ -422,7 +472,7 @@ function rasterPlan(grid: HorizontalGrid, keepLongitude0To360: boolean): RasterP
   };
 }
 
-async function writeLevelQuicklooks(dir: string, raster: RasterPlan, ws: LevelWorkspace, pPa: number, time: TimeCoordinate): Promise<void> {
+async function writeLevelQuicklooks(dir: string, raster: RasterPlan, ws: LevelArrays, pPa: number, time: TimeCoordinate): Promise<void> {
   const layout = raster.layout;
   const qdir = join(dir, OUTPUT_FILES.quicklookDir);
   await mkdir(qdir, { recursive: true });

@@ -36,6 +36,8 @@ Options:
   --bbox W,S,E,N              restrict the statistics to a box (degrees); rasters stay whole
   --keep-longitudes           keep 0..360 longitudes in the rasters (default: -180..180)
   --quicklook                 also write a PNG map per level
+  --workers N                 worker threads evaluating levels; 0 evaluates on the main thread
+                              (default: both cores when the job has 4 million cells or more)
   --quiet                     no progress bar and no notes (the output folders are still listed)
   --debug                     full error traces
 
@@ -62,6 +64,7 @@ export async function masksCommand(args: readonly string[], io: CliIo): Promise<
     bbox: { type: 'string' },
     'keep-longitudes': { type: 'boolean' },
     quicklook: { type: 'boolean' },
+    workers: { type: 'string' },
     quiet: { type: 'boolean', short: 'q' },
     help: { type: 'boolean', short: 'h' },
   });
@@ -79,6 +82,12 @@ export async function masksCommand(args: readonly string[], io: CliIo): Promise<
   }
   const tVar = str(p, 'temperature-var');
   const hVar = str(p, 'humidity-var');
+  const workersText = str(p, 'workers');
+  let workers: number | undefined;
+  if (workersText !== undefined) {
+    workers = Number(workersText);
+    if (!/^\d+$/.test(workersText.trim()) || workers > 64) throw new UsageError(`--workers must be a whole number from 0 to 64, got "${workersText}"`);
+  }
 
   const showProgress = io.stderrIsTTY && !flag(p, 'quiet');
   const bar = showProgress
@@ -101,6 +110,7 @@ export async function masksCommand(args: readonly string[], io: CliIo): Promise<
       rhConvention: rh as RhConvention | undefined,
       temperatureVariable: tVar,
       humidityVariable: hVar,
+      workers,
       progress: bar
         ? (done, total, label) => {
             if (!started) {
