@@ -32,7 +32,7 @@ import {
   type BoundingBox,
   type Summary,
 } from '../products/index.js';
-import { rasterLayout, writeGeoTiff, writeQuicklook, type RasterLayout, type RasterMetadata } from '../output/index.js';
+import { openGeoTiffWriter, rasterLayout, writeGeoTiff, writeQuicklook, type RasterLayout, type RasterMetadata, type RasterProfile } from '../output/index.js';
 import { regridToLatLon, type Regridder } from '../grid/regrid.js';
 import { VERSION } from '../version.js';
 import { parseIsoTime } from './probe.js';
@@ -306,41 +306,48 @@ async function evaluateAll(ds: GridDataset, options: MaskJobOptions, plan: JobPl
         parameters: summaryParameters(params, options.bbox),
         humidity: humidityRecord(humidity),
       });
-      const bands: (Uint8Array | Float32Array)[][] = LAYERS.map(() => []);
+      const descriptions = levelsPa.map(levelLabel);
+      const layerMetadata = (extrapolated: boolean, layer: LayerSpec): RasterMetadata => ({
+        bandDescriptions: descriptions,
+        bandItems: levelsPa.map((p) => ({ pressure_hPa: String(p / 100), flight_level: String(Math.round(flightLevelFromPressure(p) * 10) / 10) })),
+        items: { ...datasetItems(ds, params, humidity.conversion, time, extrapolated, options), ...raster.items, quantity: layer.quantity, units: layer.units },
+      });
+      // One band-by-band writer per layer: only compressed chunks stay in memory between levels.
+      const writers = LAYERS.map((layer) =>
+        openGeoTiffWriter(join(tmp, layer.file), layerProfile(layout, levelsPa.length, layer.dtype, layer.kind), layerMetadata(false, layer)),
+      );
       const column = new ColumnAccumulator(grid.npoints, levelsPa);
       let extrapolated = false;
       const queue: Promise<EvaluatedLevel>[] = [];
       let asked = 0;
-      for (let k = 0; k < levelsPa.length; k++) {
-        while (asked < levelsPa.length && queue.length < evaluator.concurrency) {
-          const p = evaluator.evaluate(time, levelsPa[asked], asked);
-          p.catch(() => undefined); // awaited below, in order
-          queue.push(p);
-          asked++;
+      try {
+        for (let k = 0; k < levelsPa.length; k++) {
+          while (asked < levelsPa.length && queue.length < evaluator.concurrency) {
+            const p = evaluator.evaluate(time, levelsPa[asked], asked);
+            p.catch(() => undefined); // awaited below, in order
+            queue.push(p);
+            asked++;
+          }
+          const { result: r, arrays } = await (queue.shift() as Promise<EvaluatedLevel>);
+          extrapolated ||= r.saturationExtrapolated;
+          summary.addLevel(time, r);
+          column.addLevel(k, arrays.persistentContrail);
+          for (let li = 0; li < LAYERS.length; li++) await writers[li].addBand(raster.toRaster(LAYERS[li].pick(arrays), LAYERS[li].kind));
+          if (options.quicklook) await writeLevelQuicklooks(tmp, raster, arrays, levelsPa[k], time);
+          options.progress?.(++done, total, `${time.valid.iso} ${levelsPa[k] / 100} hPa`);
         }
-        const { result: r, arrays } = await (queue.shift() as Promise<EvaluatedLevel>);
-        extrapolated ||= r.saturationExtrapolated;
-        summary.addLevel(time, r);
-        column.addLevel(k, arrays.persistentContrail);
-        LAYERS.forEach((layer, li) => bands[li].push(raster.toRaster(layer.pick(arrays), layer.kind)));
-        if (options.quicklook) await writeLevelQuicklooks(tmp, raster, arrays, levelsPa[k], time);
-        options.progress?.(++done, total, `${time.valid.iso} ${levelsPa[k] / 100} hPa`);
+        for (let li = 0; li < LAYERS.length; li++) await writers[li].finish(layerMetadata(extrapolated, LAYERS[li]));
+      } catch (e) {
+        await Promise.all(writers.map((w) => w.abort()));
+        // Slices still in flight are settled before the folder is removed.
+        await Promise.allSettled(queue);
+        throw e;
       }
       const heights = heightProviderFor(ds, time, levelsPa, grid.npoints);
       const col = await column.finalize(heights);
       summary.setColumnHeightSource(time, col.heightSource);
       const built = summary.build();
       const common = { ...datasetItems(ds, params, humidity.conversion, time, extrapolated, options), ...raster.items };
-      const descriptions = levelsPa.map(levelLabel);
-      for (let li = 0; li < LAYERS.length; li++) {
-        const layer = LAYERS[li];
-        await writeLayer(join(tmp, layer.file), layout, layer.dtype, layer.kind, bands[li], {
-          bandDescriptions: descriptions,
-          bandItems: levelsPa.map((p) => ({ pressure_hPa: String(p / 100), flight_level: String(Math.round(flightLevelFromPressure(p) * 10) / 10) })),
-          items: { ...common, quantity: layer.quantity, units: layer.units },
-        });
-        bands[li] = [];
-      }
       await writeLayer(
         join(tmp, OUTPUT_FILES.column),
         layout,
@@ -403,6 +410,22 @@ function datasetItems(
   };
 }
 
+function layerProfile(layout: RasterLayout, count: number, dtype: 'uint8' | 'float32', kind: 'mask' | 'continuous'): RasterProfile {
+  return {
+    width: layout.width,
+    height: layout.height,
+    count,
+    dtype,
+    crs: layout.crs,
+    transform: layout.transform,
+    nodata: dtype === 'uint8' ? MASK_NODATA : Number.NaN,
+    compress: 'deflate',
+    tiled: true,
+    cog: true,
+    overviewResampling: kind === 'mask' ? 'nearest' : 'average',
+  };
+}
+
 async function writeLayer(
   path: string,
   layout: RasterLayout,
@@ -411,24 +434,7 @@ async function writeLayer(
   bands: readonly (Uint8Array | Float32Array)[],
   metadata: RasterMetadata,
 ): Promise<void> {
-  await writeGeoTiff(
-    path,
-    {
-      width: layout.width,
-      height: layout.height,
-      count: bands.length,
-      dtype,
-      crs: layout.crs,
-      transform: layout.transform,
-      nodata: dtype === 'uint8' ? MASK_NODATA : Number.NaN,
-      compress: 'deflate',
-      tiled: true,
-      cog: true,
-      overviewResampling: kind === 'mask' ? 'nearest' : 'average',
-    },
-    [...bands],
-    metadata,
-  );
+  await writeGeoTiff(path, layerProfile(layout, bands.length, dtype, kind), [...bands], metadata);
 }
 
 /**

@@ -160,6 +160,23 @@ describe('streamed files', () => {
     for (let k = 0; k < c.count; k++) expect(firstMismatch(rasters[k], bands[k]), `geotiff.js band ${k + 1}`).toBe(-1);
   });
 
+  it('metadata given at finish replaces the opening metadata, as writeGeoTiff with that metadata writes it', async () => {
+    const c = CASES[0];
+    const path = join(dir, 'stream-late-metadata.tif');
+    const reference = join(dir, 'whole-late-metadata.tif');
+    const late = { bandDescriptions: bandsOf(c).map((_, b) => `band ${b + 1}`), items: { flag_known_at_end: 'true' } };
+    const writer = openGeoTiffWriter(path, profileOf(c), { items: { flag_known_at_end: 'unknown' } });
+    for (const band of bandsOf(c)) await writer.addBand(band);
+    await writer.finish(late);
+    await writeGeoTiff(reference, profileOf(c), bandsOf(c), late);
+    expect(Buffer.compare(readFileSync(path), readFileSync(reference))).toBe(0);
+    if (haveGdalPython) {
+      // GDAL reads the replaced items back (python3-gdal GetMetadataItem).
+      const py = `from osgeo import gdal\nds = gdal.Open(${JSON.stringify(path)})\nprint(ds.GetMetadataItem('flag_known_at_end'))`;
+      expect(run(PYTHON, ['-c', py]).trim()).toBe('true');
+    }
+  });
+
   it('a BigTIFF threshold in the options reaches the layout as writeGeoTiff applies it', async () => {
     const c = CASES[1];
     const path = join(dir, 'stream-big.tif');

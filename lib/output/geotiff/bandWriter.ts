@@ -31,7 +31,8 @@ function compact(chunk: Uint8Array): Uint8Array {
  */
 export class GeoTiffBandWriter {
   readonly path: string;
-  readonly #head: TiffHead;
+  readonly #profile: RasterProfile;
+  #head: TiffHead;
   readonly #options: EncodeOptions;
   /** chunks[image]: the compressed chunks of each image (main image, then overviews), band-major. */
   #chunks: Uint8Array[][];
@@ -41,6 +42,7 @@ export class GeoTiffBandWriter {
   /** Checks the profile (ParameterError / UnsupportedError as writeGeoTiff throws them); touches no file. */
   constructor(path: string, profile: RasterProfile, metadata?: RasterMetadata, options: EncodeOptions = {}) {
     this.path = path;
+    this.#profile = profile;
     this.#head = prepareHead(profile, metadata);
     this.#options = { ...options };
     this.#chunks = this.#head.grids.map(() => []);
@@ -100,10 +102,14 @@ export class GeoTiffBandWriter {
   /**
    * Lays out and writes the file (temporary file beside the target, then rename; nothing is left
    * on failure). Throws an OutputError, and writes nothing, unless exactly `count` bands were added.
+   * `metadata`, when given, replaces the metadata passed at opening (for items known only once
+   * every band is in, such as a flag set by any band); it is checked as at opening, and on a
+   * ParameterError the writer stays open.
    */
-  async finish(): Promise<WrittenRaster> {
+  async finish(metadata?: RasterMetadata): Promise<WrittenRaster> {
     this.#usable('finish');
     const { p } = this.#head;
+    if (metadata !== undefined) this.#head = { ...prepareHead(this.#profile, metadata), grids: this.#head.grids };
     if (this.#added !== p.count) {
       throw new OutputError(`the profile has ${p.count} band(s) but ${this.#added} band(s) were added`, { file: this.path });
     }
