@@ -74,13 +74,16 @@ rmSync(outOurs, { recursive: true, force: true });
 rmSync(outRef, { recursive: true, force: true });
 
 const ours = timed(process.execPath, [CLI, 'masks', INPUT, '--out', outOurs, '--quiet']);
+rmSync(outOurs, { recursive: true, force: true });
+const single = timed(process.execPath, [CLI, 'masks', INPUT, '--out', outOurs, '--quiet', '--workers', '0']);
 const ref = timed(PYTHON, [REFERENCE, INPUT, outRef]);
 const sliceMB = (1440 * 721 * 4) / 2 ** 20;
 process.stdout.write(
   [
     `frostgrid masks, 1440 × 721 × 37 levels, 1 time (t, q int16 NetCDF4):`,
-    `  frostgrid            ${ours.seconds.toFixed(2)} s   peak RSS ${ours.rssMB.toFixed(0)} MB (${(ours.rssMB / sliceMB).toFixed(1)} float32 slices)`,
-    `  xarray/numpy + GDAL  ${ref.seconds.toFixed(2)} s   peak RSS ${ref.rssMB.toFixed(0)} MB`,
+    `  frostgrid (default: 2 level workers)  ${ours.seconds.toFixed(2)} s   peak RSS ${ours.rssMB.toFixed(0)} MB (${(ours.rssMB / sliceMB).toFixed(1)} float32 slices)`,
+    `  frostgrid --workers 0 (main thread)   ${single.seconds.toFixed(2)} s   peak RSS ${single.rssMB.toFixed(0)} MB (${(single.rssMB / sliceMB).toFixed(1)} float32 slices)`,
+    `  xarray/numpy + GDAL                   ${ref.seconds.toFixed(2)} s   peak RSS ${ref.rssMB.toFixed(0)} MB`,
     `  ratio (reference / frostgrid): ${(ref.seconds / ours.seconds).toFixed(2)}× time, ${(ref.rssMB / ours.rssMB).toFixed(2)}× memory`,
     '',
   ].join('\n'),

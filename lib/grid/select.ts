@@ -71,9 +71,12 @@ export function findField(ds: GridDataset, quantity: Quantity, options: FindFiel
 }
 
 export type HumidityQuantity = 'specific_humidity' | 'humidity_mixing_ratio' | 'relative_humidity' | 'dew_point_temperature';
-const HUMIDITY_ORDER: readonly HumidityQuantity[] = ['specific_humidity', 'humidity_mixing_ratio', 'relative_humidity', 'dew_point_temperature'];
+/** Preference order of the humidity quantities. */
+export const HUMIDITY_ORDER: readonly HumidityQuantity[] = Object.freeze(['specific_humidity', 'humidity_mixing_ratio', 'relative_humidity', 'dew_point_temperature'] as const);
 
 export interface FindHumidityOptions {
+  /** The humidity variable to use, named explicitly (any humidity quantity). */
+  readonly variable?: string;
   /** Variables named explicitly, by quantity. */
   readonly variables?: Partial<Record<Quantity, string>>;
   /** The RH phase convention, when the file does not say. */
@@ -82,17 +85,33 @@ export interface FindHumidityOptions {
 }
 
 /**
- * The humidity field to use: specific humidity, else mixing ratio, else relative humidity (whose
- * phase convention must be known: from the file or from the user), else dew point.
+ * The humidity field to use, without deciding a relative humidity's phase convention: the named
+ * variable (which must be a humidity), else specific humidity, else mixing ratio, else relative
+ * humidity, else dew point — the first quantity with a field on pressure levels (unless levels
+ * are not required); two fields of that quantity are an AmbiguityError as in findField.
  */
-export function findHumidity(ds: GridDataset, options: FindHumidityOptions = {}): { field: Field; quantity: HumidityQuantity; rhConvention?: RhConvention } {
+export function findHumidityField(ds: GridDataset, options: Omit<FindHumidityOptions, 'rhConvention'> = {}): { field: Field; quantity: HumidityQuantity } {
+  const needLevels = options.pressureLevels ?? true;
+  if (options.variable !== undefined) {
+    const f = ds.fields.find((x) => x.name === options.variable);
+    const quantity = HUMIDITY_ORDER.find((q) => q === f?.quantity);
+    if (f !== undefined && quantity === undefined) {
+      throw new MissingQuantityError(`${ds.path}: variable ${f.name} is not a humidity (it is ${f.quantity ?? 'unrecognised'})`, 'humidity', found(ds), {
+        file: ds.path,
+        variable: f.name,
+      });
+    }
+    return { field: findField(ds, quantity ?? 'specific_humidity', { variable: options.variable, pressureLevels: needLevels }), quantity: quantity ?? 'specific_humidity' };
+  }
   for (const q of HUMIDITY_ORDER) {
     const named = options.variables?.[q];
-    if (named !== undefined) return pick(ds, findField(ds, q, { variable: named, pressureLevels: options.pressureLevels }), q, options);
+    if (named !== undefined) return { field: findField(ds, q, { variable: named, pressureLevels: needLevels }), quantity: q };
   }
-  for (const q of HUMIDITY_ORDER) {
-    if (ds.fields.some((f) => f.quantity === q)) return pick(ds, findField(ds, q, { pressureLevels: options.pressureLevels }), q, options);
-  }
+  const present = HUMIDITY_ORDER.filter((q) => ds.fields.some((f) => f.quantity === q));
+  const usable = present.find((q) => !needLevels || ds.fields.some((f) => f.quantity === q && f.levelsPa.length > 0));
+  // With nothing usable, findField on the first quantity present says why (no pressure levels).
+  const q = usable ?? present[0];
+  if (q !== undefined) return { field: findField(ds, q, { pressureLevels: needLevels }), quantity: q };
   const list = found(ds);
   throw new MissingQuantityError(
     `${ds.path}: no humidity variable found (looked for ${HUMIDITY_ORDER.join(', ')}; recognised: ${list.length > 0 ? list.join(', ') : 'nothing'})`,
@@ -102,7 +121,12 @@ export function findHumidity(ds: GridDataset, options: FindHumidityOptions = {})
   );
 }
 
-function pick(ds: GridDataset, field: Field, quantity: HumidityQuantity, options: FindHumidityOptions) {
+/**
+ * The humidity field to use (findHumidityField), with a relative humidity's phase convention,
+ * which must be known: from the file or from the user.
+ */
+export function findHumidity(ds: GridDataset, options: FindHumidityOptions = {}): { field: Field; quantity: HumidityQuantity; rhConvention?: RhConvention } {
+  const { field, quantity } = findHumidityField(ds, options);
   if (quantity !== 'relative_humidity') return { field, quantity };
   const convention = options.rhConvention ?? field.rhConvention?.convention;
   if (convention === undefined) {

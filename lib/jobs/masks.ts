@@ -107,33 +107,6 @@ export async function runMaskJob(options: MaskJobOptions): Promise<MaskJobResult
   }
 }
 
-function pickTemperature(ds: GridDataset, name: string | undefined): Field {
-  if (name === undefined) {
-    const flat = ds.fields.filter((f) => f.quantity === 'air_temperature' && f.levelsPa.length === 0);
-    if (flat.length > 0 && !ds.fields.some((f) => f.quantity === 'air_temperature' && f.levelsPa.length > 0)) {
-      throw new MissingQuantityError(
-        `${ds.path}: air temperature ${flat.map((f) => f.name).join(', ')} is not on pressure levels (no vertical axis in Pa, hPa or mbar)`,
-        'pressure levels',
-        flat.map((f) => f.name),
-        { file: ds.path, variable: flat[0].name },
-      );
-    }
-    return selectTemperature(ds);
-  }
-  const f = ds.fields.find((x) => x.name === name);
-  if (f === undefined) {
-    const found = ds.fields.map((x) => x.name);
-    throw new MissingQuantityError(`${ds.path}: no variable "${name}" (variables: ${found.join(', ')})`, 'air_temperature', found, {
-      file: ds.path,
-      variable: name,
-    });
-  }
-  if (f.levelsPa.length === 0) {
-    throw new MissingQuantityError(`${ds.path}: variable ${name} is not on pressure levels`, 'air_temperature', [name], { file: ds.path, variable: name });
-  }
-  return f;
-}
-
 /** Levels (Pa) present in both fields and selected, by increasing pressure. */
 export function selectLevels(t: Field, h: Field, sel: LevelSelection | undefined, file: string): number[] {
   const common = Array.from(t.levelsPa).filter((p) => levelIndexOf(h, p) >= 0);
@@ -229,7 +202,7 @@ const LAYERS: readonly LayerSpec[] = [
 
 async function runOnDataset(ds: GridDataset, options: MaskJobOptions): Promise<MaskJobResult> {
   const params = options.criterion;
-  const temperature = pickTemperature(ds, options.temperatureVariable);
+  const temperature = selectTemperature(ds, options.temperatureVariable);
   const humidity = selectHumidity(ds, { rhConvention: options.rhConvention, variable: options.humidityVariable, saturation: params.saturation });
   if (humidity.field.grid.npoints !== temperature.grid.npoints || humidity.field.grid.kind !== temperature.grid.kind) {
     throw new ParameterError(
@@ -312,9 +285,12 @@ async function evaluateAll(ds: GridDataset, options: MaskJobOptions, plan: JobPl
         bandItems: levelsPa.map((p) => ({ pressure_hPa: String(p / 100), flight_level: String(Math.round(flightLevelFromPressure(p) * 10) / 10) })),
         items: { ...datasetItems(ds, params, humidity.conversion, time, extrapolated, options), ...raster.items, quantity: layer.quantity, units: layer.units },
       });
-      // One band-by-band writer per layer: only compressed chunks stay in memory between levels.
+      // One band-by-band writer per layer, spooling its compressed chunks into the partial folder:
+      // memory holds the slices in flight, not the outputs.
       const writers = LAYERS.map((layer) =>
-        openGeoTiffWriter(join(tmp, layer.file), layerProfile(layout, levelsPa.length, layer.dtype, layer.kind), layerMetadata(false, layer)),
+        openGeoTiffWriter(join(tmp, layer.file), layerProfile(layout, levelsPa.length, layer.dtype, layer.kind), layerMetadata(false, layer), {
+          spoolDirectory: tmp,
+        }),
       );
       const column = new ColumnAccumulator(grid.npoints, levelsPa);
       let extrapolated = false;

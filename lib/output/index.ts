@@ -17,4 +17,4 @@ export {
   type QuicklookImage,
   type QuicklookGeometry,
 } from './quicklook/index.js';
-export { GeoTiffBandWriter, openGeoTiffWriter } from './geotiff/index.js';
+export { GeoTiffBandWriter, openGeoTiffWriter, type BandWriterOptions } from './geotiff/index.js';

@@ -13,8 +13,8 @@
  *
  * @packageDocumentation
  */
-import { AmbiguityError, MissingQuantityError, ParameterError } from '../errors.js';
-import type { Field, GridDataset, Quantity, RhConvention } from '../grid/types.js';
+import { ParameterError } from '../errors.js';
+import type { Field, GridDataset, RhConvention } from '../grid/types.js';
 import {
   HUMIDITY_CONVENTIONS,
   vapourPressureFromDewPointArray,
@@ -23,17 +23,13 @@ import {
   vapourPressureFromSpecificHumidityArray,
 } from '../physics/index.js';
 import type { SaturationFormulation } from '../physics/index.js';
+import { HUMIDITY_ORDER, findHumidityField, type HumidityQuantity } from '../grid/select.js';
 
 /** The humidity quantities frostgrid can use, by CF standard name. */
-export type HumiditySourceKind = 'specific_humidity' | 'humidity_mixing_ratio' | 'relative_humidity' | 'dew_point_temperature';
+export type HumiditySourceKind = HumidityQuantity;
 
-/** Preference order of {@link selectHumidity}. */
-export const HUMIDITY_PREFERENCE: readonly HumiditySourceKind[] = Object.freeze([
-  'specific_humidity',
-  'humidity_mixing_ratio',
-  'relative_humidity',
-  'dew_point_temperature',
-] as const);
+/** Preference order of {@link selectHumidity} (grid/select's order). */
+export const HUMIDITY_PREFERENCE: readonly HumiditySourceKind[] = HUMIDITY_ORDER;
 
 /** The humidity chosen for a run. */
 export interface HumiditySelection {
@@ -98,46 +94,8 @@ function fromEcmwf(field: Field): boolean {
  * humidity has no convention and the user named none.
  */
 export function selectHumidity(ds: GridDataset, options: HumidityOptions = {}): HumiditySelection {
-  const found = ds.fields.filter((f) => f.quantity !== undefined).map((f) => `${f.name} (${f.quantity})`);
-  let field: Field | undefined;
-  if (options.variable !== undefined) {
-    field = ds.fields.find((f) => f.name === options.variable);
-    if (!field) {
-      throw new MissingQuantityError(`${ds.path}: no variable "${options.variable}"`, 'humidity', found, { file: ds.path, variable: options.variable });
-    }
-    if (!(HUMIDITY_PREFERENCE as readonly (Quantity | undefined)[]).includes(field.quantity)) {
-      throw new MissingQuantityError(
-        `${ds.path}: variable ${field.name} is not a humidity (found ${field.quantity ?? 'unrecognised'})`,
-        'humidity',
-        found,
-        { file: ds.path, variable: field.name },
-      );
-    }
-  } else {
-    for (const q of HUMIDITY_PREFERENCE) {
-      const candidates = ds.fields.filter((f) => f.quantity === q && f.levelsPa.length > 0);
-      if (candidates.length > 1) {
-        throw new AmbiguityError(
-          `${ds.path}: several variables are ${q} (${candidates.map((c) => c.name).join(', ')}); name one`,
-          candidates.map((c) => c.name),
-          { file: ds.path },
-        );
-      }
-      if (candidates.length === 1) {
-        field = candidates[0];
-        break;
-      }
-    }
-    if (!field) {
-      throw new MissingQuantityError(
-        `${ds.path}: no humidity on pressure levels (need specific humidity, mixing ratio, relative humidity or dew point; found ${found.length ? found.join(', ') : 'nothing recognised'})`,
-        'humidity',
-        found,
-        { file: ds.path },
-      );
-    }
-  }
-  const source = field.quantity as HumiditySourceKind;
+  const { field, quantity } = findHumidityField(ds, { variable: options.variable });
+  const source: HumiditySourceKind = quantity;
   const f = options.saturation ?? 'murphy-koop';
   switch (source) {
     case 'specific_humidity':

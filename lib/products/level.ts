@@ -10,6 +10,7 @@
  */
 import { MissingQuantityError, ParameterError } from '../errors.js';
 import type { Field, GridDataset, TimeCoordinate } from '../grid/types.js';
+import { findField } from '../grid/select.js';
 import { evaluateLevel, isExtrapolated, prepareLevel } from '../physics/index.js';
 import type { CriterionParameters, LevelCounts, LevelCriterion } from '../physics/index.js';
 import { vapourPressureFromHumidity, type HumiditySelection } from './humidity.js';
@@ -145,19 +146,12 @@ export function timeIndexOf(field: Field, time: TimeCoordinate): number {
   return field.times.findIndex((c) => c.valid.iso === time.valid.iso && c.reference?.iso === time.reference?.iso && c.member === time.member);
 }
 
-/** The temperature field of a dataset on pressure levels. */
-export function selectTemperature(ds: GridDataset): Field {
-  const cands = ds.fields.filter((f) => f.quantity === 'air_temperature' && f.levelsPa.length > 0);
-  if (cands.length === 0) {
-    const found = ds.fields.filter((f) => f.quantity !== undefined).map((f) => `${f.name} (${f.quantity})`);
-    throw new MissingQuantityError(
-      `${ds.path}: no air temperature on pressure levels (found ${found.length ? found.join(', ') : 'nothing recognised'})`,
-      'air_temperature',
-      found,
-      { file: ds.path },
-    );
-  }
-  return cands[0];
+/**
+ * The air temperature field on pressure levels (grid/select findField): the named variable, else
+ * the one recognised field; several are an AmbiguityError unless one alone has the standard name.
+ */
+export function selectTemperature(ds: GridDataset, variable?: string): Field {
+  return findField(ds, 'air_temperature', { variable });
 }
 
 /**

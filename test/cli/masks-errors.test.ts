@@ -27,17 +27,17 @@ describe('frostgrid masks: data and file errors (exit 1, one line)', () => {
     {
       what: 'no temperature',
       file: 'data-samples/fixtures/cli/no_temperature.nc',
-      msg: 'data-samples/fixtures/cli/no_temperature.nc: no air temperature on pressure levels (found q (specific_humidity))',
+      msg: 'data-samples/fixtures/cli/no_temperature.nc: no air_temperature variable found (recognised: q (specific_humidity)); name it explicitly if it is there',
     },
     {
       what: 'no humidity',
       file: `${NC}/bad/missing_humidity.nc`,
-      msg: `${NC}/bad/missing_humidity.nc: no humidity on pressure levels (need specific humidity, mixing ratio, relative humidity or dew point; found t (air_temperature), z (geopotential))`,
+      msg: `${NC}/bad/missing_humidity.nc: no humidity variable found (looked for specific_humidity, humidity_mixing_ratio, relative_humidity, dew_point_temperature; recognised: t (air_temperature), z (geopotential))`,
     },
     {
       what: 'no pressure levels',
       file: `${NC}/bad/no_pressure.nc`,
-      msg: `${NC}/bad/no_pressure.nc: air temperature t is not on pressure levels`,
+      msg: `${NC}/bad/no_pressure.nc: variable t (air_temperature) has no pressure levels: its vertical axis lev is not pressure (atmosphere_hybrid_sigma_pressure_coordinate, units 1)`,
     },
     {
       what: 'relative humidity without a convention',

@@ -5,9 +5,8 @@
  * step, member, template numbers).
  */
 import { describe, expect, it } from 'vitest';
-import { readGribIndex } from '../../lib/formats/grib/index.js';
 import type { GribFieldInfo } from '../../lib/formats/grib/types.js';
-import { REFERENCE, ecDate, firstMismatch, fixture, fixtureIndex } from './reference.js';
+import { REFERENCE, ecDate, firstMismatch, fixtureIndex } from './reference.js';
 
 const files = Object.keys(REFERENCE).filter((f) => !f.startsWith('bad-'));
 

@@ -380,3 +380,74 @@ describe('misuse', () => {
     expect(readFileSync(join(target, 'keep'), 'utf8')).toBe('x');
   });
 });
+
+describe('spooling to disk', () => {
+  /** A fresh empty directory for one test, so "nothing left behind" is exact. */
+  function emptyDir(name: string): string {
+    const d = join(dir, name);
+    mkdirSync(d);
+    return d;
+  }
+
+  it.each(CASES)('$name: a spooled writer writes the bytes of writeGeoTiff and removes its spool file', async (c) => {
+    const spool = emptyDir(`spool-${c.dtype}-${c.width}x${c.height}x${c.count}`);
+    const out = emptyDir(`spool-out-${c.dtype}-${c.width}x${c.height}x${c.count}`);
+    const bands = bandsOf(c);
+    const writer = openGeoTiffWriter(join(out, 'a.tif'), profileOf(c), { bandDescriptions: bands.map((_, b) => `level ${b + 1}`) }, { spoolDirectory: spool });
+    for (const band of bands) {
+      await writer.addBand(band);
+      // The compressed chunks are on disk, in one spool file.
+      expect(readdirSync(spool)).toHaveLength(1);
+      expect(readdirSync(spool)[0]).toMatch(/^\.a\.tif\.\d+\.[0-9a-f]{8}\.spool$/);
+    }
+    await writer.finish();
+    await writeGeoTiff(join(out, 'b.tif'), profileOf(c), bands, { bandDescriptions: bands.map((_, b) => `level ${b + 1}`) });
+    expect(Buffer.compare(readFileSync(join(out, 'a.tif')), readFileSync(join(out, 'b.tif')))).toBe(0);
+    expect(readdirSync(spool)).toEqual([]);
+    expect(readdirSync(out)).toEqual(['a.tif', 'b.tif']);
+  });
+
+  it.skipIf(!haveCogValidator)('GDAL reads a spooled BigTIFF and the COG validator accepts it', async () => {
+    const c = CASES[5];
+    const spool = emptyDir('spool-big');
+    const path = join(spool, 'big.tif');
+    const writer = openGeoTiffWriter(path, profileOf(c), undefined, { spoolDirectory: spool, bigTiffThresholdBytes: 1000 });
+    for (const band of bandsOf(c)) await writer.addBand(band);
+    const written = await writer.finish();
+    expect(written.bigTiff).toBe(true);
+    expect(readdirSync(spool)).toEqual(['big.tif']);
+    // python3-gdal ReadAsArray: every band of the main image equals what was added.
+    const read = gdalReadBands(path, Float32Array, c.count);
+    bandsOf(c).forEach((band, k) => expect(firstMismatch(read[k], band), `GDAL band ${k + 1}`).toBe(-1));
+    const verdict = run(PYTHON, ['-m', 'osgeo_utils.samples.validate_cloud_optimized_geotiff', '--full-check=yes', path]);
+    expect(verdict).toContain(`${path} is a valid cloud optimized GeoTIFF`);
+  });
+
+  it('abort and a failed finish remove the spool file', async () => {
+    const c = CASES[2];
+    const spool = emptyDir('spool-abort');
+    const aborted = openGeoTiffWriter(join(spool, 'x.tif'), profileOf(c), undefined, { spoolDirectory: spool });
+    await aborted.addBand(bandsOf(c)[0]);
+    expect(readdirSync(spool)).toHaveLength(1);
+    await aborted.abort();
+    expect(readdirSync(spool)).toEqual([]);
+
+    const failing = openGeoTiffWriter(join(spool, 'no', 'such', 'x.tif'), profileOf(c), undefined, { spoolDirectory: spool });
+    for (const band of bandsOf(c)) await failing.addBand(band);
+    const err = await rejection(failing.finish());
+    expect(err).toBeInstanceOf(OutputError);
+    expect(err.message).toMatch(/\(ENOENT\)/);
+    expect(readdirSync(spool)).toEqual([]);
+  });
+
+  it('a spool directory that does not exist is an OutputError at the first band, and nothing is left', async () => {
+    const c = CASES[0];
+    const missing = join(dir, 'no-spool-here');
+    const writer = openGeoTiffWriter(join(dir, 'spool-missing.tif'), profileOf(c), undefined, { spoolDirectory: missing });
+    const err = await rejection(writer.addBand(bandsOf(c)[0]));
+    expect(err).toBeInstanceOf(OutputError);
+    expect(err.message).toMatch(/ENOENT/);
+    expect(existsSync(missing)).toBe(false);
+    expect(existsSync(join(dir, 'spool-missing.tif'))).toBe(false);
+  });
+});

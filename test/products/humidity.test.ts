@@ -8,6 +8,7 @@ import {
   humidityRecord,
   parseRhConvention,
   selectHumidity,
+  selectTemperature,
   vapourPressureFromHumidity,
 } from '../../lib/products/index.js';
 import { memoryDataset, memoryField, regionalGrid, timeAt } from './grids.js';
@@ -52,6 +53,15 @@ describe('humidity selection', () => {
     expect(selectHumidity(memoryDataset([T, rhEc])).convention).toBe('ecmwf-mixed');
     const rec = humidityRecord(selectHumidity(memoryDataset([T, rhEc])));
     expect(rec.conversion).toMatch(/^e = RH·ECMWF/);
+  });
+
+  it('two temperatures or a named non-humidity are typed errors, never a silent pick', () => {
+    const T2 = mk('ta', 'air_temperature', 'K', 230);
+    expect(() => selectTemperature(memoryDataset([T, T2, Q], 'x.nc'))).toThrow(AmbiguityError);
+    expect(() => selectTemperature(memoryDataset([T, T2, Q], 'x.nc'))).toThrow('x.nc: 2 variables could be air_temperature: t, ta; name one explicitly');
+    expect(selectTemperature(memoryDataset([T, T2, Q]), 'ta').name).toBe('ta');
+    expect(() => selectHumidity(memoryDataset([T, Q], 'x.nc'), { variable: 't' })).toThrow('x.nc: variable t is not a humidity (it is air_temperature)');
+    expect(selectHumidity(memoryDataset([T, Q, TD]), { variable: 'td' }).source).toBe('dew_point_temperature');
   });
 
   it('typed errors: no humidity, ambiguous humidity, unknown convention name', () => {

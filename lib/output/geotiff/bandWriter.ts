@@ -2,16 +2,37 @@
  * Writing a GeoTIFF band by band. Each band is checked, its overviews computed (cloud-optimized
  * layout) and all its chunks compressed as soon as it is added; only the compressed chunks are
  * kept, so a many-band file never holds more than one raw band (and its overviews) in memory.
+ * With a spool directory the compressed chunks go to a temporary file there instead of memory
+ * (noise-like float data barely compresses, so a 37-band global file is hundreds of megabytes).
  * `finish` lays the chunks out exactly as the all-at-once writer does (encoder.ts) and writes the
  * file atomically (write.ts); the two produce byte-identical files for the same bands.
  */
+import { randomBytes } from 'node:crypto';
+import { open, rm, type FileHandle } from 'node:fs/promises';
+import { basename, join } from 'node:path';
 import { OutputError } from '../../errors.js';
 import { encodeChunks } from './chunks.js';
-import { bandLevels, finish, prepareHead, type EncodeOptions, type TiffHead } from './encoder.js';
+import { bandLevels, finish, prepareHead, type Chunk, type EncodeOptions, type TiffHead } from './encoder.js';
 import { prepareBand, type RasterMetadata, type RasterProfile } from './profile.js';
 import { writePartsAtomically, type WrittenRaster } from './write.js';
 
 type WriterState = 'open' | 'adding' | 'finishing' | 'closed';
+
+/** Options of the band-by-band writer. */
+export interface BandWriterOptions extends EncodeOptions {
+  /**
+   * Directory for a temporary spool file that holds the compressed chunks until `finish` (created
+   * at the first band, removed by finish and abort). Default: chunks stay in memory.
+   */
+  spoolDirectory?: string;
+}
+
+/** The spool file: its handle and how many bytes it holds. */
+interface Spool {
+  readonly path: string;
+  readonly fh: FileHandle;
+  size: number;
+}
 
 /**
  * A zlib output buffer can be much larger than the chunk it holds (a few hundred bytes of a
@@ -33,14 +54,15 @@ export class GeoTiffBandWriter {
   readonly path: string;
   readonly #profile: RasterProfile;
   #head: TiffHead;
-  readonly #options: EncodeOptions;
+  readonly #options: BandWriterOptions;
   /** chunks[image]: the compressed chunks of each image (main image, then overviews), band-major. */
-  #chunks: Uint8Array[][];
+  #chunks: Chunk[][];
+  #spool: Promise<Spool> | undefined;
   #added = 0;
   #state: WriterState = 'open';
 
   /** Checks the profile (ParameterError / UnsupportedError as writeGeoTiff throws them); touches no file. */
-  constructor(path: string, profile: RasterProfile, metadata?: RasterMetadata, options: EncodeOptions = {}) {
+  constructor(path: string, profile: RasterProfile, metadata?: RasterMetadata, options: BandWriterOptions = {}) {
     this.path = path;
     this.#profile = profile;
     this.#head = prepareHead(profile, metadata);
@@ -82,18 +104,20 @@ export class GeoTiffBandWriter {
     const typed = prepareBand(p, band, this.#added);
     this.#state = 'adding';
     const number = this.#added + 1;
-    let encoded: Uint8Array[][];
+    let encoded: Chunk[][];
     try {
       const levels = bandLevels(this.#head, typed);
-      encoded = await Promise.all(this.#head.grids.map(({ grid }, k) => encodeChunks([levels[k]], grid, p)));
+      const compressed = await Promise.all(this.#head.grids.map(({ grid }, k) => encodeChunks([levels[k]], grid, p)));
+      encoded = this.#options.spoolDirectory === undefined ? compressed.map((cs) => cs.map(compact)) : await this.#toSpool(compressed);
     } catch (err) {
-      this.#close();
+      if (this.#state !== 'adding') throw new OutputError(`band ${number} of ${this.path} was dropped: the writer was aborted`, { file: this.path });
+      await this.#close();
       throw new OutputError(`cannot encode band ${number} of ${this.path}: ${(err as Error).message}`, { file: this.path, cause: err });
     }
     if (this.#state !== 'adding') throw new OutputError(`band ${number} of ${this.path} was dropped: the writer was aborted`, { file: this.path });
     encoded.forEach((chunks, k) => {
       const into = this.#chunks[k];
-      for (const c of chunks) into.push(compact(c));
+      for (const c of chunks) into.push(c);
     });
     this.#added = number;
     this.#state = 'open';
@@ -117,26 +141,56 @@ export class GeoTiffBandWriter {
     try {
       const images = this.#head.grids.map(({ grid, overview }, k) => ({ grid, overview, chunks: this.#chunks[k] }));
       const encoded = finish(this.#head, images, this.#options);
-      await writePartsAtomically(this.path, encoded.parts);
+      const spool = this.#spool === undefined ? undefined : await this.#spool;
+      await writePartsAtomically(this.path, encoded.parts, spool?.fh);
       return { path: this.path, bytes: encoded.bytes, bigTiff: encoded.bigTiff };
     } finally {
-      this.#close();
+      await this.#close();
     }
   }
 
-  /** Drops every encoded chunk; nothing is written. Safe to call more than once. */
+  /** Drops every encoded chunk (and the spool file); nothing is written. Safe to call more than once. */
   async abort(): Promise<void> {
-    this.#close();
-    return Promise.resolve();
+    await this.#close();
   }
 
-  #close(): void {
+  /** Appends a band's chunks to the spool file (created on first use); returns where they lie. */
+  async #toSpool(compressed: Uint8Array[][]): Promise<Chunk[][]> {
+    const dir = this.#options.spoolDirectory as string;
+    this.#spool ??= (async () => {
+      const path = join(dir, `.${basename(this.path)}.${process.pid}.${randomBytes(4).toString('hex')}.spool`);
+      return { path, fh: await open(path, 'wx+'), size: 0 };
+    })();
+    const spool = await this.#spool;
+    const flat = compressed.flat();
+    const bytes = flat.reduce((n, c) => n + c.length, 0);
+    const { bytesWritten } = await spool.fh.writev(flat, spool.size);
+    if (bytesWritten !== bytes) throw new Error(`short write to the spool file ${spool.path} (${bytesWritten} of ${bytes} bytes)`);
+    let at = spool.size;
+    spool.size += bytes;
+    return compressed.map((cs) =>
+      cs.map((c) => {
+        const chunk = { offset: at, length: c.length, tail: c.slice(Math.max(0, c.length - 4)) };
+        at += c.length;
+        return chunk;
+      }),
+    );
+  }
+
+  async #close(): Promise<void> {
     this.#state = 'closed';
     this.#chunks = [];
+    const pending = this.#spool;
+    this.#spool = undefined;
+    if (pending === undefined) return;
+    const spool = await pending.catch(() => undefined);
+    if (spool === undefined) return;
+    await spool.fh.close().catch(() => undefined);
+    await rm(spool.path, { force: true });
   }
 }
 
 /** Opens a band-by-band GeoTIFF writer for `path` (nothing touches the disk before `finish`). */
-export function openGeoTiffWriter(path: string, profile: RasterProfile, metadata?: RasterMetadata, options?: EncodeOptions): GeoTiffBandWriter {
+export function openGeoTiffWriter(path: string, profile: RasterProfile, metadata?: RasterMetadata, options?: BandWriterOptions): GeoTiffBandWriter {
   return new GeoTiffBandWriter(path, profile, metadata, options);
 }

@@ -45,9 +45,22 @@ export interface EncodeOptions {
   bigTiffThresholdBytes?: number;
 }
 
+/**
+ * A compressed chunk kept in a spool file rather than in memory (band-by-band writer): where it
+ * lies there, and its last (up to) 4 bytes, which the cloud-optimized trailer repeats.
+ */
+export interface SpooledChunk {
+  readonly offset: number;
+  readonly length: number;
+  readonly tail: Uint8Array;
+}
+
+/** An encoded chunk, or a part of the file: bytes in memory or a range of a spool file. */
+export type Chunk = Uint8Array | SpooledChunk;
+
 export interface EncodedTiff {
-  /** The file's bytes, in order, as a list of parts. */
-  readonly parts: Uint8Array[];
+  /** The file's bytes, in order, as a list of parts (spooled ranges only from a spooling writer). */
+  readonly parts: Chunk[];
   readonly bytes: number;
   readonly bigTiff: boolean;
 }
@@ -67,7 +80,7 @@ function structuralMetadata(): Uint8Array {
 /** One image of the file (the main image or an overview): its chunk geometry and encoded chunks, band-major. */
 export interface Image {
   readonly grid: ChunkGrid;
-  readonly chunks: Uint8Array[];
+  readonly chunks: readonly Chunk[];
   readonly overview: boolean;
 }
 
@@ -208,7 +221,7 @@ function layout(prep: TiffHead, images: Image[], big: boolean): EncodedTiff {
   }
   head.set(ghost, header);
   dirs.forEach((d, i) => writeIfd(dv, starts[i], 0, d.entries, i + 1 < dirs.length ? starts[i + 1] : 0, big));
-  const parts: Uint8Array[] = [head];
+  const parts: Chunk[] = [head];
   for (let i = images.length - 1; i >= 0; i--) {
     for (const c of images[i].chunks) {
       if (p.cog) {
@@ -216,7 +229,7 @@ function layout(prep: TiffHead, images: Image[], big: boolean): EncodedTiff {
         new DataView(lead.buffer).setUint32(0, c.length, true);
         parts.push(lead, c);
         const trail = new Uint8Array(4);
-        if (c.length >= 4) trail.set(c.subarray(c.length - 4));
+        if (c.length >= 4) trail.set(c instanceof Uint8Array ? c.subarray(c.length - 4) : c.tail);
         parts.push(trail);
       } else parts.push(c);
     }
@@ -260,6 +273,7 @@ export function encodeGeoTiff(
   const out = new Uint8Array(enc.bytes);
   let at = 0;
   for (const part of enc.parts) {
+    if (!(part instanceof Uint8Array)) throw new Error('in-memory encoding met a spooled chunk');
     out.set(part, at);
     at += part.length;
   }
