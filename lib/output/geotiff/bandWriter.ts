@@ -170,7 +170,8 @@ export class GeoTiffBandWriter {
     spool.size += bytes;
     return compressed.map((cs) =>
       cs.map((c) => {
-        const chunk = { offset: at, length: c.length, tail: c.slice(Math.max(0, c.length - 4)) };
+        // A copy: zlib hands back Buffers, whose slice() is a view that would keep the whole chunk alive.
+        const chunk = { offset: at, length: c.length, tail: new Uint8Array(c.subarray(Math.max(0, c.length - 4))) };
         at += c.length;
         return chunk;
       }),
