@@ -125,6 +125,25 @@ export const CRITERION_OPTIONS: OptionSpec = {
   saturation: { type: 'string' },
 };
 
+/** Library parameter names as the command line spells them. */
+const OPTION_OF_PARAMETER: Readonly<Record<string, string>> = {
+  eiH2O: '--ei-h2o',
+  lhvMJPerKg: '--lhv',
+  hydrogenMassFraction: '--hydrogen-fraction',
+  efficiency: '--efficiency',
+  iceThresholdPercent: '--ice-threshold',
+  freezingTemperatureK: '--freezing-temperature',
+  humidityScale: '--humidity-scale',
+};
+
+/** A library range error as a usage error that names the option the user typed. */
+function optionError(e: unknown): UsageError {
+  const text = e instanceof Error ? e.message : String(e);
+  const m = /^(\w+) must be in (.*)$/.exec(text);
+  const option = m ? OPTION_OF_PARAMETER[m[1]] : undefined;
+  return new UsageError(option ? `${option} must be in ${m![2]}` : text);
+}
+
 /** The fuel from --fuel, or a user fuel from --ei-h2o / --hydrogen-fraction with --lhv. */
 export function fuelFromOptions(p: Parsed): Fuel {
   const name = str(p, 'fuel');
@@ -140,7 +159,7 @@ export function fuelFromOptions(p: Parsed): Fuel {
         ? fuelFromEmissionIndex({ name: 'user', eiH2O: ei, lhvMJPerKg: lhv })
         : fuelFromComposition({ name: 'user', hydrogenMassFraction: xh as number, lhvMJPerKg: lhv });
     } catch (e) {
-      throw new UsageError(e instanceof Error ? e.message : String(e));
+      throw optionError(e);
     }
   }
   if (lhv !== undefined) {
@@ -180,7 +199,7 @@ export function criterionFromOptions(p: Parsed): CriterionParameters {
   try {
     validateCriterionParameters(params);
   } catch (e) {
-    throw new UsageError(e instanceof Error ? e.message : String(e));
+    throw optionError(e);
   }
   return params;
 }

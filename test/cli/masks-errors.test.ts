@@ -93,6 +93,10 @@ describe('frostgrid masks: usage errors (exit 2)', () => {
     { args: [DEMO, '--out', 'x', '--levels', 'low'], msg: '--levels takes pressures in hPa' },
     { args: [DEMO, '--out', 'x', '--rh-convention', 'liquid'], msg: 'unknown --rh-convention "liquid"' },
     { args: [DEMO, '--out', 'x', '--lhv', '50'], msg: '--lhv goes with --ei-h2o or --hydrogen-fraction' },
+    { args: [DEMO, '--out', 'x', '--ice-threshold', '0'], msg: '--ice-threshold must be in (0, 200] %, got 0' },
+    { args: [DEMO, '--out', 'x', '--freezing-temperature', '100'], msg: '--freezing-temperature must be in [150, 273.16] K, got 100' },
+    { args: [DEMO, '--out', 'x', '--humidity-scale', '20'], msg: '--humidity-scale must be in (0, 10], got 20' },
+    { args: [DEMO, '--out', 'x', '--workers', '-1'], msg: '--workers must be a whole number from 0 to 64, got "-1"' },
   ])('$msg', async ({ args, msg }) => {
     const r = await cli('masks', ...args);
     expect(r.code).toBe(2);

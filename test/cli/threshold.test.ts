@@ -54,6 +54,9 @@ describe('frostgrid threshold', () => {
     { args: ['--pressure', '250', '--ei-h2o', '1.3'], msg: 'a fuel of your own needs --lhv' },
     { args: ['--pressure', '250', '--saturation', 'tetens'], msg: 'unknown --saturation "tetens"' },
     { args: ['--pressure', '250', '--colour'], msg: "Unknown option '--colour'" },
+    { args: ['--pressure', '250', '--ei-h2o', '20', '--lhv', '43'], msg: '--ei-h2o must be in (0, 10] kg/kg, got 20' },
+    { args: ['--pressure', '250', '--ei-h2o', '1.25', '--lhv', '0'], msg: '--lhv must be in (0, 1000) MJ/kg, got 0' },
+    { args: ['--pressure', '250', '--hydrogen-fraction', '2', '--lhv', '43'], msg: '--hydrogen-fraction must be in [0, 1], got 2' },
   ])('usage error: $msg', async ({ args, msg }) => {
     const r = await cli('threshold', ...args);
     expect(r.code).toBe(2);
