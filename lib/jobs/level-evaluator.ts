@@ -22,6 +22,7 @@ import {
   cellWeights,
   evaluateFieldLevel,
   selectHumidity,
+  selectTemperature,
   type BoundingBox,
   type CellWeights,
   type HumiditySelection,
@@ -183,30 +184,31 @@ function revive(e: SerializedError | undefined): Error {
   return err;
 }
 
-/** Worker side: open the dataset and make the same selections as the main thread. */
+/**
+ * Worker side: open the dataset, make the same selections as the main thread and evaluate on an
+ * in-process evaluator, copying each level's arrays out of its workspace for transfer.
+ */
 export async function workerState(setup: WorkerSetup): Promise<{
   ds: GridDataset;
   evaluate(time: TimeCoordinate, pressurePa: number, levelIndex: number): Promise<EvaluatedLevel>;
 }> {
   const ds = await open(setup.path, { rhConvention: setup.rhConvention });
-  const temperature = ds.fields.find((f) => f.name === setup.temperatureVariable);
-  if (temperature === undefined) throw new FrostgridError(`${setup.path}: worker cannot find ${setup.temperatureVariable}`, { file: setup.path });
+  const temperature = selectTemperature(ds, setup.temperatureVariable);
   const humidity = selectHumidity(ds, { variable: setup.humidityVariable, rhConvention: setup.rhConvention, saturation: setup.params.saturation });
-  const weights = cellWeights(temperature.grid, setup.bbox);
   const criteria = setup.levelsPa.map((p) => prepareLevel(p, setup.params));
-  const ws = new LevelWorkspace(temperature.grid.npoints);
+  const local = inProcessEvaluator(temperature, humidity, setup.params, cellWeights(temperature.grid, setup.bbox), criteria);
   return {
     ds,
     async evaluate(time, pressurePa, levelIndex) {
-      const result = await evaluateFieldLevel(ws, temperature, humidity, time, pressurePa, setup.params, weights, criteria[levelIndex]);
+      const { result, arrays: a } = await local.evaluate(time, pressurePa, levelIndex);
       return {
         result,
         arrays: {
-          rhiPercent: ws.rhiPercent.slice(),
-          iceSupersaturated: ws.iceSupersaturated.slice(),
-          contrailForming: ws.contrailForming.slice(),
-          persistentContrail: ws.persistentContrail.slice(),
-          formationMarginK: ws.formationMarginK.slice(),
+          rhiPercent: a.rhiPercent.slice(),
+          iceSupersaturated: a.iceSupersaturated.slice(),
+          contrailForming: a.contrailForming.slice(),
+          persistentContrail: a.persistentContrail.slice(),
+          formationMarginK: a.formationMarginK.slice(),
         },
       };
     },

@@ -30,6 +30,7 @@ import {
   summaryToCsv,
   timeIndexOf,
   type BoundingBox,
+  type HumiditySelection,
   type Summary,
 } from '../products/index.js';
 import { openGeoTiffWriter, rasterLayout, writeGeoTiff, writeQuicklook, type RasterLayout, type RasterMetadata, type RasterProfile } from '../output/index.js';
@@ -234,15 +235,14 @@ async function runOnDataset(ds: GridDataset, options: MaskJobOptions): Promise<M
         )
       : inProcessEvaluator(temperature, humidity, params, weights, criteria);
   try {
-    return await evaluateAll(ds, options, { temperature, humidity, grid, levelsPa, times, raster, evaluator });
+    return await evaluateAll(ds, options, { humidity, grid, levelsPa, times, raster, evaluator });
   } finally {
     await evaluator.close();
   }
 }
 
 interface JobPlan {
-  readonly temperature: Field;
-  readonly humidity: ReturnType<typeof selectHumidity>;
+  readonly humidity: HumiditySelection;
   readonly grid: HorizontalGrid;
   readonly levelsPa: number[];
   readonly times: TimeCoordinate[];
@@ -279,16 +279,19 @@ async function evaluateAll(ds: GridDataset, options: MaskJobOptions, plan: JobPl
         parameters: summaryParameters(params, options.bbox),
         humidity: humidityRecord(humidity),
       });
+      const fileItems = (extrapolated: boolean) => ({ ...datasetItems(ds, params, humidity.conversion, time, extrapolated, options), ...raster.items });
       const descriptions = levelsPa.map(levelLabel);
-      const layerMetadata = (extrapolated: boolean, layer: LayerSpec): RasterMetadata => ({
+      const bandItems = levelsPa.map((p) => ({ pressure_hPa: String(p / 100), flight_level: String(Math.round(flightLevelFromPressure(p) * 10) / 10) }));
+      const layerMetadata = (items: Record<string, string>, layer: LayerSpec): RasterMetadata => ({
         bandDescriptions: descriptions,
-        bandItems: levelsPa.map((p) => ({ pressure_hPa: String(p / 100), flight_level: String(Math.round(flightLevelFromPressure(p) * 10) / 10) })),
-        items: { ...datasetItems(ds, params, humidity.conversion, time, extrapolated, options), ...raster.items, quantity: layer.quantity, units: layer.units },
+        bandItems,
+        items: { ...items, quantity: layer.quantity, units: layer.units },
       });
+      const opening = fileItems(false);
       // One band-by-band writer per layer, spooling its compressed chunks into the partial folder:
       // memory holds the slices in flight, not the outputs.
       const writers = LAYERS.map((layer) =>
-        openGeoTiffWriter(join(tmp, layer.file), layerProfile(layout, levelsPa.length, layer.dtype, layer.kind), layerMetadata(false, layer), {
+        openGeoTiffWriter(join(tmp, layer.file), layerProfile(layout, levelsPa.length, layer.dtype, layer.kind), layerMetadata(opening, layer), {
           spoolDirectory: tmp,
         }),
       );
@@ -312,7 +315,8 @@ async function evaluateAll(ds: GridDataset, options: MaskJobOptions, plan: JobPl
           if (options.quicklook) await writeLevelQuicklooks(tmp, raster, arrays, levelsPa[k], time);
           options.progress?.(++done, total, `${time.valid.iso} ${levelsPa[k] / 100} hPa`);
         }
-        for (let li = 0; li < LAYERS.length; li++) await writers[li].finish(layerMetadata(extrapolated, LAYERS[li]));
+        const final = extrapolated ? fileItems(true) : opening;
+        for (let li = 0; li < LAYERS.length; li++) await writers[li].finish(layerMetadata(final, LAYERS[li]));
       } catch (e) {
         await Promise.all(writers.map((w) => w.abort()));
         // Slices still in flight are settled before the folder is removed.
@@ -323,18 +327,15 @@ async function evaluateAll(ds: GridDataset, options: MaskJobOptions, plan: JobPl
       const col = await column.finalize(heights);
       summary.setColumnHeightSource(time, col.heightSource);
       const built = summary.build();
-      const common = { ...datasetItems(ds, params, humidity.conversion, time, extrapolated, options), ...raster.items };
-      await writeLayer(
+      await writeGeoTiff(
         join(tmp, OUTPUT_FILES.column),
-        layout,
-        'float32',
-        'continuous',
+        layerProfile(layout, COLUMN_BANDS.length, 'float32', 'continuous'),
         COLUMN_BANDS.map((b) => raster.toRaster(col[b.key] as Float32Array, 'mask')),
         {
           bandDescriptions: COLUMN_BANDS.map((b) => b.description),
           bandItems: COLUMN_BANDS.map((b) => ({ name: b.name })),
           items: {
-            ...common,
+            ...fileItems(extrapolated),
             quantity: 'persistent-contrail layers per column',
             column_height_source: col.heightSource + (col.heightVariable ? ` (${col.heightVariable})` : ''),
             layer_rule: 'each level stands for the layer between the log-pressure midpoints to its neighbours',
@@ -400,17 +401,6 @@ function layerProfile(layout: RasterLayout, count: number, dtype: 'uint8' | 'flo
     cog: true,
     overviewResampling: kind === 'mask' ? 'nearest' : 'average',
   };
-}
-
-async function writeLayer(
-  path: string,
-  layout: RasterLayout,
-  dtype: 'uint8' | 'float32',
-  kind: 'mask' | 'continuous',
-  bands: readonly (Uint8Array | Float32Array)[],
-  metadata: RasterMetadata,
-): Promise<void> {
-  await writeGeoTiff(path, layerProfile(layout, bands.length, dtype, kind), [...bands], metadata);
 }
 
 /**

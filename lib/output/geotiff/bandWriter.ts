@@ -7,14 +7,12 @@
  * `finish` lays the chunks out exactly as the all-at-once writer does (encoder.ts) and writes the
  * file atomically (write.ts); the two produce byte-identical files for the same bands.
  */
-import { randomBytes } from 'node:crypto';
 import { open, rm, type FileHandle } from 'node:fs/promises';
-import { basename, join } from 'node:path';
 import { OutputError } from '../../errors.js';
 import { encodeChunks } from './chunks.js';
 import { bandLevels, finish, prepareHead, type Chunk, type EncodeOptions, type TiffHead } from './encoder.js';
 import { prepareBand, type RasterMetadata, type RasterProfile } from './profile.js';
-import { writePartsAtomically, type WrittenRaster } from './write.js';
+import { temporaryPathBeside, writePartsAtomically, type WrittenRaster } from './write.js';
 
 type WriterState = 'open' | 'adding' | 'finishing' | 'closed';
 
@@ -158,7 +156,7 @@ export class GeoTiffBandWriter {
   async #toSpool(compressed: Uint8Array[][]): Promise<Chunk[][]> {
     const dir = this.#options.spoolDirectory as string;
     this.#spool ??= (async () => {
-      const path = join(dir, `.${basename(this.path)}.${process.pid}.${randomBytes(4).toString('hex')}.spool`);
+      const path = temporaryPathBeside(this.path, 'spool', dir);
       return { path, fh: await open(path, 'wx+'), size: 0 };
     })();
     const spool = await this.#spool;

@@ -15,9 +15,9 @@ export interface WrittenRaster {
   readonly bigTiff: boolean;
 }
 
-/** Path of a temporary file beside `path`. */
-export function temporaryPathBeside(path: string): string {
-  return join(dirname(path), `.${basename(path)}.${process.pid}.${randomBytes(4).toString('hex')}.partial`);
+/** Path of a temporary file for `path`: hidden, unique, in `dir` (default: beside `path`). */
+export function temporaryPathBeside(path: string, suffix = 'partial', dir = dirname(path)): string {
+  return join(dir, `.${basename(path)}.${process.pid}.${randomBytes(4).toString('hex')}.${suffix}`);
 }
 
 async function writeAll(fh: FileHandle, batch: Uint8Array[], bytes: number): Promise<void> {
