@@ -41,19 +41,27 @@ export function decodeSimple(bds: Section4, decimalScale: number, count: number,
   }
   checkSimple(bds, count, ctx);
   const b = bds.bytes;
-  // Octet 12 starts on a byte: the common widths are unpacked and scaled in one pass.
-  if (bits === 16) {
-    for (let i = 0, q = 11; i < count; i++, q += 2) out[i] = (((b[q] << 8) | b[q + 1]) * s + r) * d;
-    return;
+  // Octet 12 starts on a byte: the common widths are unpacked and scaled in one pass, each in
+  // a small loop of its own (one shape per loop keeps the compiled code tight).
+  if (bits === 16) unpack16(b, count, s, r, d, out);
+  else if (bits === 8) unpack8(b, count, s, r, d, out);
+  else if (bits === 24) unpack24(b, count, s, r, d, out);
+  else {
+    unpackUnsigned(b, 11 * 8, bits, count, out);
+    for (let i = 0; i < count; i++) out[i] = (out[i] * s + r) * d;
   }
-  if (bits === 8) {
-    for (let i = 0; i < count; i++) out[i] = (b[11 + i] * s + r) * d;
-    return;
-  }
-  if (bits === 24) {
-    for (let i = 0, q = 11; i < count; i++, q += 3) out[i] = (((b[q] << 16) | (b[q + 1] << 8) | b[q + 2]) * s + r) * d;
-    return;
-  }
-  unpackUnsigned(b, 11 * 8, bits, count, out);
-  for (let i = 0; i < count; i++) out[i] = (out[i] * s + r) * d;
+}
+
+// With D = 0 the factor 10^−D is exactly 1 and the multiplication is skipped (same result).
+function unpack16(b: Uint8Array, count: number, s: number, r: number, d: number, out: Float64Array): void {
+  if (d === 1) for (let i = 0, q = 11; i < count; i++, q += 2) out[i] = ((b[q] << 8) | b[q + 1]) * s + r;
+  else for (let i = 0, q = 11; i < count; i++, q += 2) out[i] = (((b[q] << 8) | b[q + 1]) * s + r) * d;
+}
+
+function unpack8(b: Uint8Array, count: number, s: number, r: number, d: number, out: Float64Array): void {
+  for (let i = 0; i < count; i++) out[i] = (b[11 + i] * s + r) * d;
+}
+
+function unpack24(b: Uint8Array, count: number, s: number, r: number, d: number, out: Float64Array): void {
+  for (let i = 0, q = 11; i < count; i++, q += 3) out[i] = (((b[q] << 16) | (b[q + 1] << 8) | b[q + 2]) * s + r) * d;
 }
