@@ -52,7 +52,12 @@ with open(sys.argv[1], 'rb') as f:
         h = ec.codes_grib_new_from_file(f)
         if h is None: break
         p = ec.codes_get(h, 'packingType')
-        t = time.perf_counter(); v = ec.codes_get_values(h); dt = time.perf_counter() - t
+        dt = float('inf')
+        for _ in range(5):
+            # a fresh clone each time: ecCodes keeps the unpacked values of a handle it has decoded
+            c = ec.codes_clone(h)
+            t = time.perf_counter(); v = ec.codes_get_values(c); dt = min(dt, time.perf_counter() - t)
+            ec.codes_release(c)
         print(p, dt, len(v))
         ec.codes_release(h)
 `;
@@ -78,13 +83,18 @@ async function main(): Promise<void> {
   const ours: Record<string, number> = {};
   for (const [packing, parsed] of byPacking) {
     parsed[0].decode(); // warm up
-    let ms = Infinity;
+    // Best of 5 per message, summed: the same measure as the ecCodes side below.
+    let ms = 0;
     let values = 0;
-    for (let run = 0; run < 5; run++) {
-      const t0 = performance.now();
-      values = 0;
-      for (const p of parsed) values += p.decode().length;
-      ms = Math.min(ms, performance.now() - t0);
+    for (const p of parsed) {
+      let best = Infinity;
+      for (let run = 0; run < 5; run++) {
+        const t0 = performance.now();
+        p.decode();
+        best = Math.min(best, performance.now() - t0);
+      }
+      ms += best;
+      values += p.numberOfPoints;
     }
     ours[packing] = values / (ms / 1000);
   }
@@ -97,7 +107,7 @@ async function main(): Promise<void> {
     acc.s += Number(dt);
     acc.n += Number(n);
   }
-  const lines = [`GRIB1 decode, ${PER_PACKING} messages of 1440 × 721 per packing (best of 5; messages in memory)`];
+  const lines = [`GRIB1 decode, ${PER_PACKING} messages of 1440 × 721 per packing (each message's best of 5 decodes, summed; messages in memory; each decode allocates its output)`];
   lines.push('packing               frostgrid (M values/s)   python3-eccodes (M values/s)   ratio');
   for (const key of ['grib1-simple', 'grib1-second-order']) {
     const mine = ours[key] / 1e6;

@@ -3,7 +3,7 @@
  * pointed at the library source), and what it prints is checked against the summary that the
  * command writes for the same level.
  */
-import { mkdirSync, readFileSync, writeFileSync } from 'node:fs';
+import { existsSync, mkdirSync, readFileSync, writeFileSync } from 'node:fs';
 import { join, resolve } from 'node:path';
 import { describe, expect, it, vi } from 'vitest';
 import { cli } from './cli/support.js';
@@ -19,6 +19,19 @@ describe('README', () => {
     expect(readme).toContain('npm ci && npm run demo');
     expect(readme).toContain('npm test');
     expect(readme).toMatch(/not an operational flight-planning/);
+  });
+
+  it('links only to files that exist, and the package ships them', () => {
+    const pkg = JSON.parse(readFileSync('package.json', 'utf8')) as { files: string[] };
+    for (const doc of ['README.md', 'REFERENCES.md']) {
+      const text = readFileSync(doc, 'utf8');
+      const links = [...text.matchAll(/\]\(([^)#\s]+)\)/g)].map((m) => m[1]).filter((l) => !/^[a-z]+:/.test(l));
+      if (doc === 'README.md') expect(links).toContain('REFERENCES.md');
+      for (const link of links) {
+        expect(existsSync(link), `${doc} links to ${link}`).toBe(true);
+        expect(pkg.files.some((f) => link === f || link.startsWith(`${f}/`)), `${link} is in package.json files`).toBe(true);
+      }
+    }
   });
 
   it('its library example runs and agrees with frostgrid masks', async () => {
