@@ -153,16 +153,23 @@ describe('GRIB1 bad input', () => {
     expectError(() => parse(b).decode(), DecodeError, OFFSET + sections(b).bds, /second-order groups hold 840 values .*, 800 are expected/);
   });
 
-  it('unknown second-order flag combinations are an UnsupportedError naming the flags', () => {
+  // Flag combinations outside the forms read (layout: FM 92 GRIB edition 1, Code table 11 and
+  // ecCodes grib1/11-2.table; the forms: ecCodes grib1/section.4.def packingType concept).
+  it.each([
+    ['50', 'matrix of values, second-order values of different widths, spatial differencing order 0'],
+    ['28', 'secondary bitmap, general extended second-order packing, second-order values of constant width, spatial differencing order 0'],
+    ['08', 'general extended second-order packing, second-order values of constant width, spatial differencing order 0'],
+    ['00', 'second-order values of constant width, spatial differencing order 0'],
+    ['12', 'second-order values of different widths, spatial differencing order 2'],
+    ['31', 'secondary bitmap, second-order values of different widths, spatial differencing order 1'],
+    ['14', 'second-order values of different widths, boustrophedonic ordering, spatial differencing order 0'],
+    ['9a', 'reserved bit 1, second-order values of different widths, general extended second-order packing, spatial differencing order 2'],
+  ])('second-order extended flags 0x%s are an UnsupportedError naming the flags', (hex, named) => {
     const b = damaged('ll_t250_t128_second_order', (b) => {
-      b[sections(b).bds + 13] = 0x30; // secondary bitmap + different widths (general, not extended)
+      b[sections(b).bds + 13] = parseInt(hex, 16);
     });
-    expectError(
-      () => parse(b),
-      UnsupportedError,
-      OFFSET + sections(b).bds + 13,
-      /extended flags 0x30 is not supported \(secondary bitmap, second-order values of different widths, spatial differencing order 0;/,
-    );
+    const e = expectError(() => parse(b), UnsupportedError, OFFSET + sections(b).bds + 13, new RegExp(`second-order packing with extended flags 0x${hex} is not supported \\(${named}; read are: general extended`));
+    expect((e as unknown as UnsupportedError).id).toBe(`0x${hex}`);
   });
 
   it('spherical harmonic data are an UnsupportedError', () => {

@@ -62,15 +62,19 @@ export function parseGrib1Message(file: string, bytes: Uint8Array, location: Gri
     throw ctx.format(p, 'end marker "7777" not found after section 4');
   }
   const secondOrder: SecondOrderHeader | undefined = bds.secondOrder ? readSecondOrderHeader(bds, ctx) : undefined;
-  // Simple packing: bits per value. Second-order packing: octet 11 is the width of the
-  // first-order values, reported as is; the quantization step is 2^E·10^−D in both cases.
+  // Simple packing: bits per value. Second-order packing (every form): octet 11 is the width of
+  // the first-order values, reported as is; the quantization step is 2^E·10^−D in both cases.
+  // (ecCodes' bitsPerValue for second-order packing is no octet: it is computed from the decoded
+  // values, second_order_bits_per_value, as the bits of ceil((max − min)·2^−E·10^D).)
   const bitsPerValue = bds.octet11;
   const numberOfPoints = gds.numberOfPoints;
 
   const decode = (): Float64Array => {
     const present = bms ? countPresent(bms, numberOfPoints) : numberOfPoints;
     // Check the data against the point count before allocating anything of that size.
-    const layout = secondOrder ? readSecondOrderLayout(bds, secondOrder, present, ctx) : undefined;
+    const layout = secondOrder
+      ? readSecondOrderLayout(bds, secondOrder, { count: present, rows: gds.rows, columns: gds.columns, pl: gds.pl, bms }, ctx)
+      : undefined;
     if (!layout) checkSimple(bds, present, ctx);
     const out = new Float64Array(numberOfPoints);
     const packed = bms ? new Float64Array(present) : out;

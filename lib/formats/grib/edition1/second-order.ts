@@ -1,34 +1,45 @@
 /**
- * GRIB edition 1 second-order packing, general extended form (section 4 flags 0x40 with extended
- * flags at octet 14), as ECMWF's archives and ecCodes (packingType=grid_second_order and its
- * _SPD1, _SPD3, _no_SPD, _boustrophedonic variants) write it.
+ * GRIB edition 1 second-order packing (section 4 flags 0x40, grid-point data): which form the
+ * extended flags of octet 14 select, and the decoding all forms share.
  *
- * Layout, octets of section 4 (ecCodes definitions grib1/section.4.def and
- * data.grid_second_order.def; FM 92 GRIB edition 1, section 4, second-order packing):
- *   11 width of first-order values, 12–13 N1 (octet of the first-order values), 14 extended flags,
- *   15–16 N2 (octet of the second-order values), 17–18 number of groups P1, 19–20 number of
- *   second-order values P2, 21 extra groups (groups = P1 + 65536·extra), 22 width of the group
- *   widths, 23 width of the group lengths, 24–25 NL (octet of the group lengths),
- *   26 width of the spatial-differencing values when SPD is used, then the SPD order initial
- *   values (unsigned) and the SPD bias (sign and magnitude), then, each starting on an octet,
- *   the group widths, group lengths and first-order values, then the second-order values of all
- *   groups as one bit stream. NL, N1 and N2 saturate at 65535.
+ * Forms read (FM 92 GRIB edition 1, section 4, "grid-point data — second-order packing", and
+ * Code table 11; ecCodes definitions grib1/section.4.def, the packingType concept):
+ *   - general extended (0x08 | 0x10, no secondary bitmap; optional boustrophedonic ordering 0x04
+ *     and spatial differencing order in the low 2 bits): ecCodes grid_second_order and its
+ *     _SPD1, _SPD3, _no_SPD, _boustrophedonic variants — second-order-extended.ts;
+ *   - row by row (0x10, no secondary bitmap): each row of the grid is one group —
+ *     ecCodes grid_second_order_row_by_row — second-order-wmo.ts;
+ *   - constant width (0x20, secondary bitmap, one width W21; optional 0x04) —
+ *     ecCodes grid_second_order_constant_width — second-order-wmo.ts;
+ *   - general (0x30, secondary bitmap, one width per group; optional 0x04) —
+ *     ecCodes grid_second_order_general_grib1 — second-order-wmo.ts.
+ * Every other combination (matrix of values 0x40, the reserved bit 0x80, a general extended
+ * section with a secondary bitmap or constant width, constant width without a secondary bitmap,
+ * spatial differencing or boustrophedonic ordering outside the forms that define them) is an
+ * UnsupportedError naming the flags.
  * Extended flags (ecCodes grib1/11-2.table; bit 1 = 0x80): 0x40 matrix of values,
  *   0x20 secondary bitmap, 0x10 second-order values of different widths, 0x08 general extended
  *   packing, 0x04 boustrophedonic ordering, 0x02 and 0x01 the order of spatial differencing
- *   (2·bit + bit, 0..3).
+ *   (2·bit + bit, 0..3). Octet 14 is read as flags whether or not section 4 flag 0x10
+ *   ("additional flags at octet 14") is set: ecCodes writes general extended sections without it.
  *
- * Decoding: value k of group g is firstOrder[g] + (its second-order value, or 0 when the group's
- * width is 0). With SPD order m the first m integers are the SPD initial values and the series is
- * integrated m times, adding the bias to each m-th difference; then Y = (X·2^E + R)·10^−D.
- * Boustrophedonic ordering reverses every second row (rows 1, 3, … from 0) after any bitmap has
- * been applied.
+ * Decoding: every form comes down to groups (first-order value, width, length) over one stream
+ * of second-order values; value k of group g is firstOrder[g] + (its second-order value, or 0
+ * when the group's width is 0). With SPD order m the first m integers are the SPD initial values
+ * and the series is integrated m times, adding the bias to each m-th difference; then
+ * Y = (X·2^E + R)·10^−D. Boustrophedonic ordering reverses every second row (rows 1, 3, … from 0)
+ * after any bitmap has been applied (ecCodes data_apply_bitmap then data_apply_boustrophedonic,
+ * its default when ECCODES_GRIBEX_BOUSTROPHEDONIC is unset).
  */
 import { unpackUnsigned } from '../../../codecs/bits.js';
 import type { MessageContext } from './context.js';
-import { signedBits, u16, unsignedBits } from './octets.js';
+import { readExtendedLayout } from './second-order-extended.js';
+import { readRowByRowLayout, readSecondaryBitmapLayout, type SecondOrderGrid } from './second-order-wmo.js';
 import type { Section4 } from './section4.js';
 
+export type { SecondOrderGrid } from './second-order-wmo.js';
+
+export const EXT_RESERVED = 0x80;
 export const EXT_MATRIX = 0x40;
 export const EXT_SECONDARY_BITMAP = 0x20;
 export const EXT_DIFFERENT_WIDTHS = 0x10;
@@ -36,6 +47,7 @@ export const EXT_GENERAL_EXTENDED = 0x08;
 export const EXT_BOUSTROPHEDONIC = 0x04;
 
 const FLAG_NAMES: readonly [number, string][] = [
+  [EXT_RESERVED, 'reserved bit 1'],
   [EXT_MATRIX, 'matrix of values'],
   [EXT_SECONDARY_BITMAP, 'secondary bitmap'],
   [EXT_DIFFERENT_WIDTHS, 'second-order values of different widths'],
@@ -45,30 +57,51 @@ const FLAG_NAMES: readonly [number, string][] = [
 
 function describeFlags(ext: number): string {
   const on = FLAG_NAMES.filter(([bit]) => ext & bit).map(([, name]) => name);
+  if (!(ext & EXT_DIFFERENT_WIDTHS)) on.push('second-order values of constant width');
   on.push(`spatial differencing order ${ext & 3}`);
   return on.join(', ');
 }
 
+/** The forms of second-order packing this decoder reads, named as ecCodes' packingType is. */
+export type SecondOrderForm = 'general-extended' | 'row-by-row' | 'constant-width' | 'general';
+
+const SUPPORTED =
+  'read are: general extended packing with different widths and no secondary bitmap; ' +
+  'row by row (different widths, no secondary bitmap, no boustrophedonic ordering); ' +
+  'constant or different widths with a secondary bitmap; spatial differencing only with general extended packing';
+
 export interface SecondOrderHeader {
   readonly extendedFlags: number;
+  readonly form: SecondOrderForm;
   readonly orderOfSpd: number;
   readonly boustrophedonic: boolean;
 }
 
-/** Checks the extended flags (octet 14) and returns what they select. */
+/** Checks the extended flags (octet 14) and returns the form they select. */
 export function readSecondOrderHeader(bds: Section4, ctx: MessageContext): SecondOrderHeader {
-  if (bds.length < 25) throw ctx.format(bds.offset, `section 4 of second-order packing needs 25 bytes, has ${bds.length}`);
+  if (bds.length < 22) throw ctx.format(bds.offset, `section 4 of second-order packing needs at least 22 bytes, has ${bds.length}`);
   const ext = bds.bytes[13];
-  const required = EXT_DIFFERENT_WIDTHS | EXT_GENERAL_EXTENDED;
-  if ((ext & (EXT_MATRIX | EXT_SECONDARY_BITMAP | required)) !== required || ext & 0x80) {
-    throw ctx.unsupported(
-      bds.offset + 13,
-      'GRIB1 second-order packing with extended flags',
-      `0x${ext.toString(16).padStart(2, '0')}`,
-      `${describeFlags(ext)}; only general extended packing with different widths and no secondary bitmap is`,
-    );
+  const unsupported = () =>
+    ctx.unsupported(bds.offset + 13, 'GRIB1 second-order packing with extended flags', `0x${ext.toString(16).padStart(2, '0')}`, `${describeFlags(ext)}; ${SUPPORTED}`);
+  if (ext & (EXT_RESERVED | EXT_MATRIX)) throw unsupported();
+  const secondary = (ext & EXT_SECONDARY_BITMAP) !== 0;
+  const different = (ext & EXT_DIFFERENT_WIDTHS) !== 0;
+  const boustrophedonic = (ext & EXT_BOUSTROPHEDONIC) !== 0;
+  const orderOfSpd = ext & 3;
+  let form: SecondOrderForm;
+  if (ext & EXT_GENERAL_EXTENDED) {
+    if (secondary || !different) throw unsupported();
+    if (bds.length < 25) throw ctx.format(bds.offset, `section 4 of general extended second-order packing needs 25 bytes, has ${bds.length}`);
+    form = 'general-extended';
+  } else {
+    // Spatial differencing belongs to general extended packing only; ecCodes ignores these bits
+    // (and boustrophedonic ordering for row by row) in the other forms, so they are refused here.
+    if (orderOfSpd !== 0) throw unsupported();
+    if (secondary) form = different ? 'general' : 'constant-width';
+    else if (different && !boustrophedonic) form = 'row-by-row';
+    else throw unsupported();
   }
-  return { extendedFlags: ext, orderOfSpd: ext & 3, boustrophedonic: (ext & EXT_BOUSTROPHEDONIC) !== 0 };
+  return { extendedFlags: ext, form, orderOfSpd, boustrophedonic };
 }
 
 /** The group descriptors of a second-order section, checked against the section and the count. */
@@ -84,81 +117,49 @@ export interface SecondOrderLayout {
 }
 
 /**
- * Reads and checks the descriptors for `count` coded values (allocations are bounded by the
- * section length or by `count`, which the caller has bounded).
+ * Reads and checks the descriptors for the `grid.count` coded values (allocations are bounded by
+ * the section length or by the count, which the caller has bounded).
  */
-export function readSecondOrderLayout(bds: Section4, header: SecondOrderHeader, count: number, ctx: MessageContext): SecondOrderLayout {
-  const b = bds.bytes;
-  const at = (octet: number) => bds.offset + octet - 1;
-  const widthFirst = b[10];
-  const n1 = u16(b, 11);
-  const n2 = u16(b, 14);
-  const groups = u16(b, 16) + 65536 * b[20];
-  const widthOfWidths = b[21];
-  const widthOfLengths = b[22];
-  const nl = u16(b, 23);
-  const order = header.orderOfSpd;
-  for (const [w, octet, name] of [
-    [widthFirst, 11, 'width of first-order values'],
-    [widthOfWidths, 22, 'width of group widths'],
-    [widthOfLengths, 23, 'width of group lengths'],
-  ] as const) {
-    if (w > 32) throw ctx.decode(at(octet), `${name} ${w} is more than 32 bits`);
+export function readSecondOrderLayout(bds: Section4, header: SecondOrderHeader, grid: SecondOrderGrid, ctx: MessageContext): SecondOrderLayout {
+  let layout: SecondOrderLayout;
+  switch (header.form) {
+    case 'general-extended':
+      layout = readExtendedLayout(bds, header.orderOfSpd, grid.count, ctx);
+      break;
+    case 'row-by-row':
+      layout = readRowByRowLayout(bds, grid, ctx);
+      break;
+    case 'constant-width':
+    case 'general':
+      layout = readSecondaryBitmapLayout(bds, header.form === 'general', grid.count, ctx);
+      break;
   }
-  if (groups === 0) throw ctx.decode(at(17), 'second-order packing with 0 groups');
-  let pos = 25;
-  const spd: number[] = [];
-  if (order > 0) {
-    const w = b[25];
-    if (w === 0 || w > 32) throw ctx.decode(at(26), `width of spatial-differencing values ${w} is not 1..32`);
-    pos = 26;
-    const bytesSpd = Math.ceil(((order + 1) * w) / 8);
-    if (pos + bytesSpd > bds.length) throw ctx.format(bds.offset, 'section 4 ends inside the spatial-differencing values');
-    for (let i = 0; i < order; i++) spd.push(unsignedBits(b, pos * 8 + i * w, w));
-    spd.push(signedBits(b, pos * 8 + order * w, w));
-    pos += bytesSpd;
-  }
-  const descriptors = Math.ceil((groups * widthOfWidths) / 8) + Math.ceil((groups * widthOfLengths) / 8) + Math.ceil((groups * widthFirst) / 8);
-  if (pos + descriptors > bds.length) {
-    throw ctx.format(bds.offset, `section 4 of ${bds.length} bytes cannot hold the descriptors of ${groups} groups`);
-  }
-  if (groups > count) throw ctx.decode(at(17), `${groups} groups for ${count} values`);
-  const widths = new Uint32Array(groups);
-  const lengths = new Uint32Array(groups);
-  const firsts = new Float64Array(groups);
-  const expectOctet = (coded: number, actual: number, octet: number, name: string) => {
-    if (coded !== 65535 && coded !== actual + 1) {
-      throw ctx.decode(at(octet), `${name} is octet ${coded}, the descriptors put it at octet ${actual + 1}`);
-    }
-  };
-  unpackUnsigned(b, pos * 8, widthOfWidths, groups, widths);
-  pos += Math.ceil((groups * widthOfWidths) / 8);
-  expectOctet(nl, pos, 24, 'NL (start of group lengths)');
-  unpackUnsigned(b, pos * 8, widthOfLengths, groups, lengths);
-  pos += Math.ceil((groups * widthOfLengths) / 8);
-  expectOctet(n1, pos, 12, 'N1 (start of first-order values)');
-  unpackUnsigned(b, pos * 8, widthFirst, groups, firsts);
-  pos += Math.ceil((groups * widthFirst) / 8);
-  expectOctet(n2, pos, 15, 'N2 (start of second-order values)');
-
-  let total = order;
-  let dataBits = 0;
-  for (let g = 0; g < groups; g++) {
-    if (widths[g] > 32) throw ctx.decode(at(pos), `group ${g} has width ${widths[g]}, more than 32 bits`);
-    total += lengths[g];
-    dataBits += lengths[g] * widths[g];
-  }
-  if (total !== count) {
-    throw ctx.decode(bds.offset, `second-order groups hold ${total} values (with ${order} spatial-differencing values), ${count} are expected`);
-  }
-  const available = (bds.length - pos) * 8;
-  if (dataBits > available) {
-    throw ctx.format(bds.offset, `second-order values need ${Math.ceil(dataBits / 8)} bytes, section 4 has ${bds.length - pos} after the descriptors`);
-  }
-  return { order, spd, widths, lengths, firsts, dataBit: pos * 8 };
+  checkDataLength(bds, layout, ctx);
+  return layout;
 }
 
-/** Decodes the `count` coded values of a general extended second-order section into `out`. */
+/**
+ * The second-order values must lie inside the section, before the unused bits octet 4 declares
+ * at its end (FM 92 GRIB edition 1, section 4, octet 4; the section is padded to an even number
+ * of octets, regulation 92.1.4, so up to 15 bits may be unused).
+ */
+function checkDataLength(bds: Section4, layout: SecondOrderLayout, ctx: MessageContext): void {
+  const { widths, lengths } = layout;
+  let bits = 0;
+  for (let g = 0; g < widths.length; g++) bits += lengths[g] * widths[g];
+  const after = bds.length - layout.dataBit / 8;
+  if (bits > after * 8) {
+    throw ctx.format(bds.offset, `second-order values need ${Math.ceil(bits / 8)} bytes, section 4 has ${after} after the descriptors`);
+  }
+  if (layout.dataBit + bits > bds.length * 8 - bds.unusedBits) {
+    throw ctx.decode(
+      bds.offset + 3,
+      `second-order values end at bit ${layout.dataBit + bits} of section 4, inside the ${bds.unusedBits} unused bits its last ${bds.length} bytes end with`,
+    );
+  }
+}
+
+/** Decodes the `count` coded values of a second-order section into `out`. */
 export function decodeSecondOrder(bds: Section4, layout: SecondOrderLayout, decimalScale: number, count: number, out: Float64Array): void {
   const b = bds.bytes;
   const { order, spd, widths, lengths, firsts } = layout;
