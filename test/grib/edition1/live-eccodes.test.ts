@@ -3,7 +3,11 @@
  *   - time units, time range indicators and centuries: a fixture re-coded with codes_set, then
  *     ecCodes' endStep (stepUnits=s), dataDate/dataTime and validityDate/validityTime against ours;
  *   - the large-message length rule: a message of more than 8 MB written by ecCodes in GRIBEX
- *     mode (ECCODES_GRIBEX_MODE_ON=1), its length and values against ecCodes'.
+ *     mode (ECCODES_GRIBEX_MODE_ON=1), its length and values against ecCodes';
+ *   - second-order forms ecCodes reads but cannot write: that it still refuses to write them (the
+ *     reason the fixtures are hand-packed), and a row-by-row field of 720 × 361 points (more
+ *     values than P2 can count), packed by make_fixtures.py's hand_packed, against ecCodes'
+ *     decoding of the same bytes.
  */
 import { mkdtempSync, readFileSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
@@ -120,5 +124,71 @@ describe('GRIB1 large messages (more than 8 MB) against ecCodes (live)', () => {
     expect(() => grib1MessageLength(bytes.subarray(0, 70), { file: 'large.grib1', offset: 0, message: 1 })).toThrow(
       /^large\.grib1: GRIB1 message 1 at byte 0: needs at least 95 bytes to read the section 4 length, has 70$/,
     );
+  });
+});
+
+const SECOND_ORDER_SCRIPT = `
+import importlib.util, json, sys
+import numpy as np
+spec = importlib.util.spec_from_file_location('make_fixtures', sys.argv[1])
+mf = importlib.util.module_from_spec(spec)
+spec.loader.exec_module(mf)
+ec, out = mf.ec, sys.argv[2]
+written = {}
+for packing in ('grid_second_order_row_by_row', 'grid_second_order_constant_width', 'grid_second_order_general_grib1'):
+    h = ec.codes_grib_new_from_samples('GRIB1')
+    ec.codes_set_values(h, np.linspace(250.0, 260.0, ec.codes_get(h, 'numberOfPoints')))
+    try:
+        ec.codes_set(h, 'packingType', packing)
+        written[packing] = ec.codes_get(h, 'packingType')
+    except ec.GribInternalError as e:
+        written[packing] = 'error: ' + type(e).__name__
+    ec.codes_release(h)
+for name, bitmap in (('rbr', False), ('rbr_bitmap', True)):
+    h = ec.codes_grib_new_from_samples('GRIB1')
+    mf.latlon(h, 720, 361, 90, 0, -90, 359.5, 0.5, 0.5)
+    n = 720 * 361
+    miss = None
+    if bitmap:
+        miss = np.zeros(n, dtype=bool)
+        miss[(np.arange(n) * 7919) % 23 == 5] = True
+        miss[720 * 100:720 * 101] = True
+    mf.pack(h, mf.invented(n, 250, 20, 3), bits=16, missing=miss)
+    rows = [720] * 361
+    lengths = mf.present_per_row(rows, miss)
+    widths = [w if k else 0 for w, k in zip(mf.cycle([0, 4, 9, 13, 17, 24], 361), lengths)]
+    c = mf.hand_packed(h, ext=0x10, lengths=lengths, widths=widths, width_first=12, E=-16, seed=7, missing=miss)
+    with open('%s/%s.grib1' % (out, name), 'wb') as f:
+        ec.codes_write(c, f)
+    v = ec.codes_get_values(c)
+    if bitmap:
+        v[miss] = np.nan
+    v.astype('<f8').tofile('%s/%s.f64' % (out, name))
+print(json.dumps(written))
+`;
+
+describe('GRIB1 second-order forms ecCodes reads but cannot write (live)', () => {
+  it('ecCodes still refuses to write them; a 720 × 361 row-by-row field, with and without a bitmap, decodes to ecCodes values', () => {
+    if (!toolAvailable('python', 'eccodes')) return;
+    const written = JSON.parse(run(PYTHON, ['-c', SECOND_ORDER_SCRIPT, join(FIXTURE_DIR, 'make_fixtures.py'), dir])) as Record<string, string>;
+    // ecCodes 2.28: codes_set(packingType) fails for all three (README of the fixtures).
+    for (const [packing, result] of Object.entries(written)) expect(result, packing).toMatch(/^error: /);
+    for (const name of ['rbr', 'rbr_bitmap']) {
+      const bytes = new Uint8Array(readFileSync(join(dir, `${name}.grib1`)));
+      // Layout: FM 92 GRIB edition 1, section 4 octets 19-20 (P2) cannot hold 259 920 values.
+      const info = parseGrib1Message(`${name}.grib1`, bytes, locationOf(bytes));
+      expect(info.packing).toBe('grib1-second-order');
+      const values = info.decode();
+      // Oracle: ecCodes 2.28 codes_get_values of the same bytes (NaN where it reports missing).
+      const want = new Float64Array(new Uint8Array(readFileSync(join(dir, `${name}.f64`))).buffer);
+      expect(values.length).toBe(720 * 361);
+      let bad = -1;
+      for (let i = 0; i < want.length && bad < 0; i++) {
+        const ok = Number.isNaN(want[i]) ? Number.isNaN(values[i]) : Math.abs(values[i] - want[i]) <= 1e-6 * Math.abs(want[i]);
+        if (!ok) bad = i;
+      }
+      expect(bad, bad >= 0 ? `${name} point ${bad}: ${values[bad]} vs ecCodes ${want[bad]}` : '').toBe(-1);
+      expect(values.reduce((n, v) => n + (Number.isNaN(v) ? 1 : 0), 0)).toBe(want.reduce((n, v) => n + (Number.isNaN(v) ? 1 : 0), 0));
+    }
   });
 });

@@ -154,7 +154,7 @@ function checkDataLength(bds: Section4, layout: SecondOrderLayout, ctx: MessageC
   if (layout.dataBit + bits > bds.length * 8 - bds.unusedBits) {
     throw ctx.decode(
       bds.offset + 3,
-      `second-order values end at bit ${layout.dataBit + bits} of section 4, inside the ${bds.unusedBits} unused bits its last ${bds.length} bytes end with`,
+      `second-order values end at bit ${layout.dataBit + bits} of the ${bds.length * 8} bits of section 4, inside the last ${bds.unusedBits} that octet 4 declares unused`,
     );
   }
 }
