@@ -90,6 +90,24 @@ describe('GRIB1 fixtures against ecCodes', () => {
     else expect(info.bitsPerValue).toBe(k.bitsPerValue);
   });
 
+  const secondOrderNames = names.filter((n) => String(loadFixture(n).ref.keys.packingType).startsWith('grid_second_order'));
+  it.each(secondOrderNames)('%s: ecCodes bitsPerValue is the bits of the decoded range, not octet 11', (name) => {
+    // ecCodes 2.28 second_order_bits_per_value: the number of bits of ceil(|max − min|·2^−E·10^D)
+    // over the decoded values — coded values for general extended packing, the values with the
+    // missing value (9999 in make_fixtures.py) in place for the other forms.
+    const fx = loadFixture(name);
+    const k = fx.ref.keys;
+    const info = parseGrib1Message(fx.path, fx.bytes, locationOf(fx.bytes));
+    const values = [...info.decode()];
+    const extended = k.generalExtended2ordr === 1;
+    const range = extended ? values.filter((v) => !Number.isNaN(v)) : values.map((v) => (Number.isNaN(v) ? 9999 : v));
+    const span = Math.ceil(Math.abs(Math.max(...range) - Math.min(...range)) * 2 ** -info.binaryScale * 10 ** info.decimalScale);
+    let bits = 0;
+    while (span >= 2 ** bits) bits++;
+    expect(bits).toBe(k.bitsPerValue);
+    expect(info.bitsPerValue).toBe(k.widthOfFirstOrderValues);
+  });
+
   it.each(names)('%s: parameter description equals ecCodes shortName, name and units', (name) => {
     const fx = loadFixture(name);
     const k = fx.ref.keys;

@@ -107,12 +107,17 @@ export function readRowByRowLayout(bds: Section4, grid: SecondOrderGrid, ctx: Me
   const widths = new Uint32Array(groups);
   const lengths = new Uint32Array(groups);
   let start = 0;
+  let total = 0;
   for (let g = 0; g < groups; g++) {
     widths[g] = b[21 + g];
     checkWidth(bds, ctx, widths[g], 21 + g, g);
     const n = grid.pl ? grid.pl[g] : grid.columns;
     lengths[g] = grid.bms ? presentIn(grid.bms, start, n) : n;
+    total += lengths[g];
     start += n;
+  }
+  if (total !== grid.count) {
+    throw ctx.decode(bds.offset, `the rows of the grid hold ${total} values, ${grid.count} are expected`);
   }
   const { firsts, dataBit } = readFirstOrder(bds, ctx, groups, 21 + groups);
   return { order: 0, spd: [], widths, lengths, firsts, dataBit };
