@@ -139,9 +139,9 @@ export function readSecondOrderLayout(bds: Section4, header: SecondOrderHeader, 
 }
 
 /**
- * The second-order values must lie inside the section, before the unused bits octet 4 declares
- * at its end (FM 92 GRIB edition 1, section 4, octet 4; the section is padded to an even number
- * of octets, regulation 92.1.4, so up to 15 bits may be unused).
+ * The second-order values must lie inside the section. The unused-bits count of octet 4 is not
+ * held against them: ecCodes 2.28 ignores it for second-order packing (a fixture whose count is
+ * set to 15 decodes unchanged there), and archives written by other encoders may not keep it.
  */
 function checkDataLength(bds: Section4, layout: SecondOrderLayout, ctx: MessageContext): void {
   const { widths, lengths } = layout;
@@ -150,12 +150,6 @@ function checkDataLength(bds: Section4, layout: SecondOrderLayout, ctx: MessageC
   const after = bds.length - layout.dataBit / 8;
   if (bits > after * 8) {
     throw ctx.format(bds.offset, `second-order values need ${Math.ceil(bits / 8)} bytes, section 4 has ${after} after the descriptors`);
-  }
-  if (layout.dataBit + bits > bds.length * 8 - bds.unusedBits) {
-    throw ctx.decode(
-      bds.offset + 3,
-      `second-order values end at bit ${layout.dataBit + bits} of the ${bds.length * 8} bits of section 4, inside the last ${bds.unusedBits} that octet 4 declares unused`,
-    );
   }
 }
 
