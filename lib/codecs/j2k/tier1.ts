@@ -1,0 +1,291 @@
+/**
+ * Tier-1 decoding (ISO/IEC 15444-1 Annex D): the bit-plane coding passes of one code-block.
+ *
+ * Coefficients are held as magnitudes with one extra fractional bit ("×2 units"): a coefficient
+ * that becomes significant in bit-plane p is set to 3·2^p (1.5 of that plane), and each later
+ * refinement bit moves it by ±2^p' for its plane p'. Fully decoded, the magnitude is 2m + 1 for
+ * the integer magnitude m; when passes were truncated the value sits at the middle of the
+ * interval the decoded bits leave open (the usual reconstruction point r = ½, E.1.1.2).
+ *
+ * State per coefficient, in arrays padded by one column and row on every side:
+ *   flags: significant, coded in this bit-plane's significance pass, refined before, negative;
+ *   nb:    counts of significant neighbours, horizontal (2 bits), vertical (2), diagonal (3),
+ *          which index the zero-coding context tables D.1 directly.
+ */
+import { DecodeError } from '../../errors.js';
+import { CTX_REFINE, CTX_RUN, CTX_SIGN, CTX_UNIFORM, MqDecoder, RawDecoder, newContexts, resetContexts } from './mq.js';
+
+/** Code-block style bits of COD/COC SPcod (Table A.19). */
+export const CB_BYPASS = 0x01;
+export const CB_RESET = 0x02;
+export const CB_TERMALL = 0x04;
+export const CB_VCAUSAL = 0x08;
+export const CB_PREDICTABLE = 0x10;
+export const CB_SEGSYM = 0x20;
+
+const SIG = 1;
+const VISITED = 2;
+const REFINED = 4;
+const NEG = 8;
+
+/** Pass types in coding order within a bit-plane. */
+export const PASS_SIGNIFICANCE = 0;
+export const PASS_REFINEMENT = 1;
+export const PASS_CLEANUP = 2;
+
+/** The type of coding pass number `k` of a code-block (pass 0 is the first cleanup pass). */
+export function passType(k: number): number {
+  return k === 0 ? PASS_CLEANUP : (k - 1) % 3;
+}
+
+/** Zero-coding contexts (Table D.1) by the packed neighbour count h + 4v + 16d, per orientation. */
+function zeroCodingTable(kind: 'h' | 'v' | 'd'): Uint8Array {
+  const t = new Uint8Array(128);
+  for (let d = 0; d <= 4; d++) {
+    for (let v = 0; v <= 2; v++) {
+      for (let h = 0; h <= 2; h++) {
+        let cx: number;
+        if (kind === 'd') {
+          const hv = h + v;
+          if (d >= 3) cx = 8;
+          else if (d === 2) cx = hv >= 1 ? 7 : 6;
+          else if (d === 1) cx = hv >= 2 ? 5 : hv === 1 ? 4 : 3;
+          else cx = hv >= 2 ? 2 : hv;
+        } else {
+          const a = kind === 'h' ? h : v; // the direction along which the subband is low-pass
+          const b = kind === 'h' ? v : h;
+          if (a === 2) cx = 8;
+          else if (a === 1) cx = b >= 1 ? 7 : d >= 1 ? 6 : 5;
+          else if (b === 2) cx = 4;
+          else if (b === 1) cx = 3;
+          else cx = d >= 2 ? 2 : d;
+        }
+        t[h + 4 * v + 16 * d] = cx;
+      }
+    }
+  }
+  return t;
+}
+/** By band type: LL and LH (vertically high-pass), HL (horizontally high-pass), HH. */
+const ZC_BY_BAND = [zeroCodingTable('h'), zeroCodingTable('v'), zeroCodingTable('h'), zeroCodingTable('d')];
+
+/** One codeword segment of a code-block: its bytes (gathered over layers) and passes. */
+export interface Segment {
+  /** Passes this segment may hold (termination rules of D.4.1 and Table D.8). */
+  maxPasses: number;
+  passes: number;
+  /** True when its passes are raw (arithmetic-coding bypass). */
+  raw: boolean;
+  chunks: Uint8Array[];
+  length: number;
+}
+
+/** What tier-1 needs to know about a code-block. */
+export interface CodeBlockCoding {
+  width: number;
+  height: number;
+  /** Band type: 0 LL, 1 HL, 2 LH, 3 HH. */
+  band: number;
+  style: number;
+  /** Magnitude bit-planes coded: Mb − zero bit-planes + ROI shift. */
+  planes: number;
+  segments: readonly Segment[];
+}
+
+/** Reused working arrays (one per decoder, grown as needed). */
+export class Tier1Workspace {
+  flags = new Uint8Array(0);
+  nb = new Uint8Array(0);
+  mag = new Int32Array(0);
+  readonly contexts = newContexts();
+  readonly mq = new MqDecoder();
+  readonly raw = new RawDecoder();
+
+  prepare(size: number): void {
+    if (this.flags.length < size) {
+      this.flags = new Uint8Array(size);
+      this.nb = new Uint8Array(size);
+      this.mag = new Int32Array(size);
+    } else {
+      this.flags.fill(0, 0, size);
+      this.nb.fill(0, 0, size);
+      this.mag.fill(0, 0, size);
+    }
+  }
+}
+
+function joinSegment(s: Segment): Uint8Array {
+  if (s.chunks.length === 1) return s.chunks[0];
+  const out = new Uint8Array(s.length);
+  let p = 0;
+  for (const c of s.chunks) {
+    out.set(c, p);
+    p += c.length;
+  }
+  return out;
+}
+
+/**
+ * Decodes a code-block's passes into `ws.mag` / `ws.flags` (padded layout, stride width + 2).
+ * @returns the stride of the padded arrays.
+ */
+export function decodeCodeBlock(cb: CodeBlockCoding, ws: Tier1Workspace): number {
+  const w = cb.width;
+  const h = cb.height;
+  const stride = w + 2;
+  ws.prepare(stride * (h + 2));
+  const flags = ws.flags;
+  const nb = ws.nb;
+  const mag = ws.mag;
+  const ctx = ws.contexts;
+  resetContexts(ctx);
+  const mq = ws.mq;
+  const raw = ws.raw;
+  const zc = ZC_BY_BAND[cb.band];
+  const vcausal = (cb.style & CB_VCAUSAL) !== 0;
+  const reset = (cb.style & CB_RESET) !== 0;
+  const segsym = (cb.style & CB_SEGSYM) !== 0;
+
+  /** Marks (x, y) significant and tells its neighbours. */
+  const becomeSignificant = (i: number, y: number, negative: number, plane: number): void => {
+    flags[i] |= negative ? SIG | NEG : SIG;
+    mag[i] = 3 << plane;
+    // horizontal neighbours +1, vertical +4, diagonal +16
+    nb[i - 1] += 1;
+    nb[i + 1] += 1;
+    nb[i + stride] += 4;
+    nb[i + stride - 1] += 16;
+    nb[i + stride + 1] += 16;
+    if (!(vcausal && (y & 3) === 0)) {
+      nb[i - stride] += 4;
+      nb[i - stride - 1] += 16;
+      nb[i - stride + 1] += 16;
+    }
+  };
+
+  /** Sign decoding (D.3.2, Tables D.2 and D.3) of the coefficient at i, row y. */
+  const decodeSign = (i: number, y: number): number => {
+    const fl = flags[i - 1];
+    const fr = flags[i + 1];
+    const fu = flags[i - stride];
+    const fd = vcausal && (y & 3) === 3 ? 0 : flags[i + stride];
+    let hc = (fl & SIG ? (fl & NEG ? -1 : 1) : 0) + (fr & SIG ? (fr & NEG ? -1 : 1) : 0);
+    let vc = (fu & SIG ? (fu & NEG ? -1 : 1) : 0) + (fd & SIG ? (fd & NEG ? -1 : 1) : 0);
+    hc = hc > 0 ? 1 : hc < 0 ? -1 : 0;
+    vc = vc > 0 ? 1 : vc < 0 ? -1 : 0;
+    let xor = 0;
+    if (hc < 0 || (hc === 0 && vc < 0)) {
+      hc = -hc;
+      vc = -vc;
+      xor = 1;
+    }
+    // (1,1)→13 (1,0)→12 (1,−1)→11 (0,1)→10 (0,0)→9
+    const cx = hc === 1 ? CTX_SIGN + 3 + vc : CTX_SIGN + vc;
+    return mq.decode(ctx, cx) ^ xor;
+  };
+
+  const significancePass = (plane: number, bypass: boolean): void => {
+    for (let y0 = 0; y0 < h; y0 += 4) {
+      const y1 = Math.min(y0 + 4, h);
+      for (let x = 0; x < w; x++) {
+        for (let y = y0, i = (y0 + 1) * stride + x + 1; y < y1; y++, i += stride) {
+          if ((flags[i] & SIG) !== 0 || nb[i] === 0) continue;
+          if (bypass) {
+            if (raw.bit() === 1) becomeSignificant(i, y, raw.bit(), plane);
+          } else if (mq.decode(ctx, zc[nb[i]]) === 1) {
+            becomeSignificant(i, y, decodeSign(i, y), plane);
+          }
+          flags[i] |= VISITED;
+        }
+      }
+    }
+  };
+
+  const refinementPass = (plane: number, bypass: boolean): void => {
+    const step = 1 << plane;
+    for (let y0 = 0; y0 < h; y0 += 4) {
+      const y1 = Math.min(y0 + 4, h);
+      for (let x = 0; x < w; x++) {
+        for (let y = y0, i = (y0 + 1) * stride + x + 1; y < y1; y++, i += stride) {
+          const f = flags[i];
+          if ((f & (SIG | VISITED)) !== SIG) continue;
+          let bit: number;
+          if (bypass) bit = raw.bit();
+          else bit = mq.decode(ctx, f & REFINED ? CTX_REFINE + 2 : nb[i] !== 0 ? CTX_REFINE + 1 : CTX_REFINE);
+          mag[i] += bit ? step : -step;
+          flags[i] = f | REFINED;
+        }
+      }
+    }
+  };
+
+  const cleanupPass = (plane: number): void => {
+    for (let y0 = 0; y0 < h; y0 += 4) {
+      const y1 = Math.min(y0 + 4, h);
+      for (let x = 0; x < w; x++) {
+        const top = (y0 + 1) * stride + x + 1;
+        let y = y0;
+        if (y0 + 4 <= h) {
+          const i1 = top + stride;
+          const i2 = i1 + stride;
+          const i3 = i2 + stride;
+          if (
+            ((flags[top] | flags[i1] | flags[i2] | flags[i3]) & (SIG | VISITED)) === 0 &&
+            (nb[top] | nb[i1] | nb[i2] | nb[i3]) === 0
+          ) {
+            if (mq.decode(ctx, CTX_RUN) === 0) continue; // all four stay insignificant
+            const r = (mq.decode(ctx, CTX_UNIFORM) << 1) | mq.decode(ctx, CTX_UNIFORM);
+            y = y0 + r;
+            const i = top + r * stride;
+            becomeSignificant(i, y, decodeSign(i, y), plane);
+            y++;
+          }
+        }
+        for (let i = top + (y - y0) * stride; y < y1; y++, i += stride) {
+          const f = flags[i];
+          if ((f & (SIG | VISITED)) === 0 && mq.decode(ctx, zc[nb[i]]) === 1) {
+            becomeSignificant(i, y, decodeSign(i, y), plane);
+          }
+        }
+        for (let y2 = y0, i = top; y2 < y1; y2++, i += stride) flags[i] &= ~VISITED;
+      }
+    }
+    if (segsym) {
+      let symbol = 0;
+      for (let k = 0; k < 4; k++) symbol = (symbol << 1) | mq.decode(ctx, CTX_UNIFORM);
+      if (symbol !== 0b1010) throw new DecodeError(`JPEG 2000: code-block segmentation symbol is ${symbol.toString(2)}, not 1010`);
+    }
+  };
+
+  let plane = cb.planes - 1;
+  let type = PASS_CLEANUP;
+  let pass = 0;
+  for (const seg of cb.segments) {
+    if (seg.passes === 0) continue;
+    const data = joinSegment(seg);
+    if (seg.raw) raw.init(data, 0, data.length);
+    else mq.init(data, 0, data.length);
+    for (let k = 0; k < seg.passes; k++, pass++) {
+      if (plane < 0) {
+        throw new DecodeError(`JPEG 2000: code-block has more coding passes than its ${cb.planes} bit-planes allow`);
+      }
+      if (type === PASS_SIGNIFICANCE) significancePass(plane, seg.raw);
+      else if (type === PASS_REFINEMENT) refinementPass(plane, seg.raw);
+      else cleanupPass(plane);
+      if (reset) resetContexts(ctx);
+      if (type === PASS_CLEANUP) {
+        type = PASS_SIGNIFICANCE;
+        plane--;
+      } else type++;
+    }
+  }
+  return stride;
+}
+
+/** Whether the coefficient at padded index i is negative. */
+export function isNegative(ws: Tier1Workspace, i: number): boolean {
+  return (ws.flags[i] & NEG) !== 0;
+}
+
+/** Bit of the negative flag, for callers looping over `ws.flags`. */
+export const FLAG_NEGATIVE = NEG;
