@@ -55,15 +55,20 @@ function decodeBlocks(tile: TileData, layout: TileLayout, buf: Int32Array | Floa
         for (const block of pb.blocks) {
           if (block.passes === 0) continue;
           const planes = band.magnitudePlanes - block.zeroPlanes + roi;
+          if (planes <= 0) {
+            // More zero bit-planes than the subband has (B.10.5 forbids it). OpenJPEG, the
+            // JPEG 2000 coder inside ecCodes and GDAL, writes such code-blocks for 30- and 31-bit
+            // samples: their detail-subband exponents exceed the 5 bits of QCD and are stored
+            // modulo 32. Its decoder leaves these code-blocks at zero; so do we, to read those
+            // messages as ecCodes does (the values in them are then not the values packed).
+            continue;
+          }
           if (planes > J2K_MAX_CODED_PLANES) {
             throw new UnsupportedError(
               `JPEG 2000: tile ${tile.index}: a code-block codes ${planes} bit-planes; at most ${J2K_MAX_CODED_PLANES} are supported`,
               'JPEG 2000 bit-planes',
               planes,
             );
-          }
-          if (planes <= 0) {
-            throw new DecodeError(`JPEG 2000: tile ${tile.index}: code-block with ${block.passes} passes but ${planes} bit-planes`);
           }
           const w = block.x1 - block.x0;
           const h = block.y1 - block.y0;
@@ -81,7 +86,7 @@ function decodeBlocks(tile: TileData, layout: TileLayout, buf: Int32Array | Floa
               if (roi > 0 && m >= roiThreshold) m = Math.floor(m / 2 ** roi);
               const negative = (flags[i] & FLAG_NEGATIVE) !== 0;
               if (reversible) buf[out + u] = negative ? -(m >> 1) : m >> 1;
-              else buf[out + u] = (negative ? -m : m) * halfStep;
+              else buf[out + u] = Math.fround(negative ? -m : m) * halfStep; // as float × float, like OpenJPEG
             }
           }
         }

@@ -17,11 +17,14 @@
  */
 import type { TileLayout } from './tile.js';
 
-const ALPHA = -1.586134342059924;
-const BETA = -0.052980118572961;
-const GAMMA = 0.882911075530934;
-const DELTA = 0.443506852043971;
-const K = 1.230174104914001;
+const fround = Math.fround;
+/** Lifting coefficients of Table F.4 as 32-bit floats, negated: each step adds c·(left + right). */
+const ALPHA = fround(1.586134342);
+const BETA = fround(0.052980118);
+const GAMMA = fround(-0.882911075);
+const DELTA = fround(-0.443506852);
+const K = fround(1.230174105);
+const HIGH_SCALE = 1.625732422 / 2;
 
 /** Copies one row of `len` samples out of its L…H halves into natural order. */
 function interleaveRow(src: Int32Array | Float32Array, at: number, len: number, lowCount: number, parity: number, out: Int32Array | Float32Array): void {
@@ -51,7 +54,7 @@ function step97(x: Float32Array, n: number, start: number, c: number): void {
   for (let k = start; k < n; k += 2) {
     const l = k > 0 ? x[k - 1] : x[k + 1];
     const r = k + 1 < n ? x[k + 1] : x[k - 1];
-    x[k] -= c * (l + r);
+    x[k] = fround(x[k] + fround(c * fround(l + r)));
   }
 }
 
@@ -60,8 +63,8 @@ function lift97(x: Float32Array, n: number, parity: number): void {
     if (parity === 1) x[0] /= 2;
     return;
   }
-  for (let k = parity; k < n; k += 2) x[k] *= K;
-  for (let k = 1 - parity; k < n; k += 2) x[k] /= K;
+  for (let k = parity; k < n; k += 2) x[k] = fround(x[k] * K);
+  for (let k = 1 - parity; k < n; k += 2) x[k] *= HIGH_SCALE;
   step97(x, n, parity, DELTA);
   step97(x, n, 1 - parity, GAMMA);
   step97(x, n, parity, BETA);
@@ -93,7 +96,7 @@ function stepRows97(t: Float32Array, w: number, rows: number, start: number, coe
     const l = (k > 0 ? k - 1 : k + 1) * w;
     const r = (k + 1 < rows ? k + 1 : k - 1) * w;
     const c = k * w;
-    for (let x = 0; x < w; x++) t[c + x] -= coef * (t[l + x] + t[r + x]);
+    for (let x = 0; x < w; x++) t[c + x] = fround(t[c + x] + fround(coef * fround(t[l + x] + t[r + x])));
   }
 }
 
@@ -103,7 +106,7 @@ function liftRows97(t: Float32Array, w: number, rows: number, parity: number): v
     return;
   }
   for (let k = 0; k < rows; k++) {
-    const s = ((k + parity) & 1) === 0 ? K : 1 / K;
+    const s = ((k + parity) & 1) === 0 ? K : HIGH_SCALE;
     for (let x = k * w, e = x + w; x < e; x++) t[x] *= s;
   }
   stepRows97(t, w, rows, parity, DELTA);
