@@ -18,5 +18,6 @@ export {
   type AecParameters,
   type AecOptionCounts,
 } from './aec/index.js';
-export { decodeJpeg2000, JPEG2000_MAX_BITS, type DecodedSamples } from './jpeg2000.js';
+export { decodeJpeg2000, JPEG2000_MAX_BITS, JPEG2000_WASM_MAX_BITS, type DecodedSamples } from './jpeg2000.js';
+export { decodeJ2k, J2K_MAX_CODED_PLANES, type J2kSamples } from './j2k/index.js';
 export { decodePngSamples } from './png.js';

@@ -2,11 +2,14 @@
  * JPEG 2000 codestream decoding for GRIB2 data representation template 5.40: the data section is
  * a raw J2K codestream (ISO/IEC 15444-1) of one unsigned component, precision = bits per value.
  *
- * Decoding uses OpenJPEG compiled to WebAssembly (@cornerstonejs/codec-openjpeg), which is exact
- * up to 16 bits per sample. The module is instantiated once and cached.
+ * Up to 16 bits per sample, decoding uses OpenJPEG compiled to WebAssembly
+ * (@cornerstonejs/codec-openjpeg; instantiated once and cached), which is exact there and fast.
+ * Its build hands back at most 16 bits per sample, so deeper codestreams (GRIB allows 31 bits)
+ * go to our own decoder in ./j2k/, written from ISO/IEC 15444-1.
  */
 import factory, { type OpenJpegModule } from '@cornerstonejs/codec-openjpeg/decodewasmjs';
 import { DecodeError, UnsupportedError } from '../errors.js';
+import { decodeJ2k } from './j2k/index.js';
 
 export interface DecodedSamples {
   width: number;
@@ -16,8 +19,11 @@ export interface DecodedSamples {
   values: Uint32Array;
 }
 
-/** Largest precision the WebAssembly OpenJPEG build returns exactly. */
-export const JPEG2000_MAX_BITS = 16;
+/** Largest precision the WebAssembly OpenJPEG build returns exactly; deeper ones use ./j2k/. */
+export const JPEG2000_WASM_MAX_BITS = 16;
+
+/** Largest precision decoded: the 31 bits GRIB2 allows, and one more. */
+export const JPEG2000_MAX_BITS = 32;
 
 let openjpeg: Promise<OpenJpegModule> | undefined;
 
@@ -50,8 +56,8 @@ function readSiz(
 
 /**
  * Decodes a raw J2K codestream of one unsigned component into its integer samples.
- * @throws DecodeError when the bytes are not a J2K codestream or OpenJPEG rejects them;
- *   UnsupportedError for several components, signed samples or more than 16 bits per sample.
+ * @throws DecodeError when the bytes are not a J2K codestream or a decoder rejects them;
+ *   UnsupportedError for several components, signed samples or more than 32 bits per sample.
  */
 export async function decodeJpeg2000(codestream: Uint8Array): Promise<DecodedSamples> {
   const siz = readSiz(codestream);
@@ -71,11 +77,12 @@ export async function decodeJpeg2000(codestream: Uint8Array): Promise<DecodedSam
   if (siz.signed) throw new UnsupportedError('JPEG 2000: signed samples', 'JPEG 2000 signed samples', 'signed');
   if (siz.bits > JPEG2000_MAX_BITS) {
     throw new UnsupportedError(
-      `JPEG 2000: ${siz.bits} bits per sample; the OpenJPEG WebAssembly decoder is exact only up to ${JPEG2000_MAX_BITS}`,
+      `JPEG 2000: ${siz.bits} bits per sample; at most ${JPEG2000_MAX_BITS} are decoded`,
       'JPEG 2000 bits per sample',
       siz.bits,
     );
   }
+  if (siz.bits > JPEG2000_WASM_MAX_BITS) return decodeJ2k(codestream);
   const oj = await openjpegModule();
   const decoder = new oj.J2KDecoder();
   try {

@@ -13,7 +13,14 @@
  *          which index the zero-coding context tables D.1 directly.
  */
 import { DecodeError } from '../../errors.js';
-import { CTX_REFINE, CTX_RUN, CTX_SIGN, CTX_UNIFORM, MqDecoder, RawDecoder, newContexts, resetContexts } from './mq.js';
+import * as mqModule from './mq.js';
+import { MqDecoder, RawDecoder, newContexts, resetContexts } from './mq.js';
+
+// Module-local copies: the hot loops below read plain constants, not imported bindings.
+const CTX_REFINE: number = mqModule.CTX_REFINE;
+const CTX_RUN: number = mqModule.CTX_RUN;
+const CTX_SIGN: number = mqModule.CTX_SIGN;
+const CTX_UNIFORM: number = mqModule.CTX_UNIFORM;
 
 /** Code-block style bits of COD/COC SPcod (Table A.19). */
 export const CB_BYPASS = 0x01;

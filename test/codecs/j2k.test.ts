@@ -1,0 +1,177 @@
+/**
+ * Our JPEG 2000 decoder (lib/codecs/j2k, ISO/IEC 15444-1) against the committed fixtures of
+ * data-samples/fixtures/codecs/j2k (made by make-fixtures.py there): 130 raw codestreams written
+ * by opj_compress 2.5.0, gdal_translate (GDAL 3.6.2 JP2OpenJPEG) and ecCodes 2.28 grid_jpeg.
+ *
+ * Expected samples: GDAL 3.6.2's decode of the same bytes (JP2OpenJPEG driver, OpenJPEG 2.5.0),
+ * cross-checked there with opj_decompress (and grk_decompress up to 16 bits). Every sample must
+ * be equal, irreversible (9/7) streams included. Expected GRIB2 values: ecCodes' codes_get_values.
+ */
+import { createHash } from 'node:crypto';
+import { readFileSync } from 'node:fs';
+import { gunzipSync } from 'node:zlib';
+import { fileURLToPath } from 'node:url';
+import { describe, expect, it } from 'vitest';
+import { decodeJ2k, decodeJpeg2000 } from '../../lib/codecs/index.js';
+import { DecodeError, UnsupportedError } from '../../lib/errors.js';
+import { readGribIndex } from '../../lib/formats/grib/index.js';
+
+const DIR = fileURLToPath(new URL('../../data-samples/fixtures/codecs/j2k/', import.meta.url));
+
+interface Fixture {
+  name: string;
+  file: string;
+  expected: string;
+  width: number;
+  height: number;
+  bitsPerSample: number;
+  features: string[];
+  sha256: string;
+  first5: number[];
+  last3: number[];
+  tool: string;
+  grib2?: string;
+  ecCodes?: { valuesSha256F64le: string; valuesFirst3: number[]; valuesLast3: number[]; numberOfValues: number };
+}
+const all = (JSON.parse(readFileSync(DIR + 'fixtures.json', 'utf8')) as { fixtures: Fixture[] }).fixtures;
+/** Streams the fixture README sets apart: overlapping POC records (decoders disagree), no guard bits. */
+const SET_APART = new Set(['poc-overlap', 'guard0']);
+const fixtures = all.filter((f) => !SET_APART.has(f.name));
+
+const bytes = (f: string): Uint8Array => new Uint8Array(readFileSync(DIR + f));
+function expectedSamples(f: Fixture): Uint32Array {
+  const b = gunzipSync(readFileSync(DIR + f.expected));
+  return new Uint32Array(b.buffer, b.byteOffset, b.length / 4);
+}
+
+function firstDifference(got: { width: number; values: Uint32Array }, want: Uint32Array): string | undefined {
+  const v = got.values;
+  if (v.length !== want.length) return `${v.length} samples, ${want.length} expected`;
+  for (let i = 0; i < want.length; i++) {
+    if (v[i] !== want[i]) return `row ${Math.floor(i / got.width)}, column ${i % got.width}: ${v[i]}, GDAL ${want[i]}`;
+  }
+  return undefined;
+}
+
+describe('decodeJ2k against GDAL (OpenJPEG 2.5.0) on every sample', () => {
+  it.each(fixtures.map((f) => [`${f.name} (${f.bitsPerSample} bits; ${f.features.join(', ')})`, f] as const))('%s', (_n, f) => {
+    const got = decodeJ2k(bytes(f.file));
+    expect([got.width, got.height, got.bitsPerSample]).toEqual([f.width, f.height, f.bitsPerSample]);
+    expect(firstDifference(got, expectedSamples(f))).toBeUndefined();
+    // the committed record itself: digest and end samples as the generator wrote them
+    expect(createHash('sha256').update(new Uint8Array(got.values.buffer)).digest('hex')).toBe(f.sha256);
+    expect([...got.values.subarray(0, 5), ...got.values.subarray(got.values.length - 3)]).toEqual([...f.first5, ...f.last3]);
+  });
+
+  it('the fixtures cover every precision 1–31 and every coding option the decoder reads', () => {
+    const tags = new Set(fixtures.flatMap((f) => f.features));
+    for (let b = 1; b <= 31; b++) expect(tags.has(`bits:${b}`), `bits:${b}`).toBe(true);
+    for (const t of [
+      'reversible', 'irreversible', 'tiles', 'tileoffset', 'tileparts', 'offset', 'layers', 'precincts', 'sop', 'eph',
+      'bypass', 'reset', 'termall', 'vcausal', 'predictable', 'segsym', 'roi', 'poc', 'plt', 'tlm', 'constant',
+      'resolutions:1', 'resolutions:2', 'resolutions:6', 'progression:LRCP', 'progression:RLCP', 'progression:RPCL',
+      'progression:PCRL', 'progression:CPRL', 'codeblock:4x4', 'codeblock:32x8', 'guardbits:1', 'grib2',
+    ]) {
+      expect(tags.has(t), t).toBe(true);
+    }
+  });
+});
+
+describe('decodeJpeg2000 hands more than 16 bits per sample to our decoder', () => {
+  it.each(fixtures.filter((f) => f.bitsPerSample > 16 && f.features.includes('eccodes')).map((f) => [f.name, f] as const))(
+    '%s',
+    async (_n, f) => {
+      const got = await decodeJpeg2000(bytes(f.file));
+      expect(got.bitsPerSample).toBe(f.bitsPerSample);
+      expect(firstDifference(got, expectedSamples(f))).toBeUndefined();
+    },
+  );
+
+  it('and 33 bits or more are refused by name', async () => {
+    const f = fixtures.find((x) => x.name === 'grib2-24')!;
+    const b = bytes(f.file).slice();
+    b[42] = 32; // Ssiz: precision − 1 (ISO/IEC 15444-1 A.5.1)
+    const err = await decodeJpeg2000(b).catch((e: unknown) => e);
+    expect(err).toBeInstanceOf(UnsupportedError);
+    expect((err as Error).message).toMatch(/33 bits per sample/);
+  });
+});
+
+describe('GRIB2 template 5.40 messages of ecCodes grid_jpeg above 16 bits, through the GRIB reader', () => {
+  const gribs = fixtures.filter((f) => f.grib2 !== undefined && f.ecCodes !== undefined);
+  it.each(gribs.map((f) => [f.name, f] as const))('%s: values equal codes_get_values', async (_n, f) => {
+    const index = await readGribIndex(DIR + f.grib2!);
+    expect(index.problems).toEqual([]);
+    const info = index.fields[0];
+    expect(info.packing).toBe('5.40');
+    const values = await (info.decodeAsync ? info.decodeAsync() : info.decode());
+    const e = f.ecCodes!;
+    expect(values.length).toBe(e.numberOfValues);
+    expect([...values.subarray(0, 3), ...values.subarray(values.length - 3)]).toEqual([...e.valuesFirst3, ...e.valuesLast3]);
+    const le = new Uint8Array(Float64Array.from(values).buffer);
+    expect(createHash('sha256').update(le).digest('hex')).toBe(e.valuesSha256F64le);
+  });
+});
+
+describe('bad or unsupported codestreams: typed errors that say what is wrong', () => {
+  const base = (): Uint8Array => bytes(fixtures.find((x) => x.name === 'grib2-24')!.file).slice();
+
+  it('not a codestream', () => {
+    expect(() => decodeJ2k(new Uint8Array([0xff, 0x4f, 0, 0]))).toThrow(DecodeError);
+    expect(() => decodeJ2k(new Uint8Array([0xff, 0x4f, 0, 0]))).toThrow(/SOC, SIZ/);
+  });
+
+  it('cut inside the packet data', () => {
+    const b = base();
+    const cut = b.subarray(0, Math.floor(b.length * 0.6));
+    // a tile-part whose declared length runs past the end
+    expect(() => decodeJ2k(cut)).toThrow(DecodeError);
+    expect(() => decodeJ2k(cut)).toThrow(/runs past the end of the codestream/);
+  });
+
+  it('packet data that runs out before the last packet', () => {
+    const b = base();
+    // Psot 0 means "to the end of the codestream": drop the tail but keep an EOC
+    const sot = findMarker(b, 0xff90);
+    b.set([0, 0, 0, 0], sot + 6);
+    const short = new Uint8Array([...b.subarray(0, Math.floor(b.length * 0.5)), 0xff, 0xd9]);
+    expect(() => decodeJ2k(short)).toThrow(DecodeError);
+    expect(() => decodeJ2k(short)).toThrow(/tile 0: .*runs past the end of the tile data/);
+  });
+
+  it('more than one component, signed samples', () => {
+    const b = base();
+    const three = new Uint8Array([...b.subarray(0, 40), 0, 3, ...b.subarray(42)]);
+    expect(() => decodeJ2k(three)).toThrow(UnsupportedError);
+    expect(() => decodeJ2k(three)).toThrow(/3 components, GRIB needs 1/);
+    const signed = base();
+    signed[42] |= 0x80;
+    expect(() => decodeJ2k(signed)).toThrow(/signed samples/);
+  });
+
+  it('a reserved wavelet transform and too many decomposition levels', () => {
+    const b = base();
+    const cod = findMarker(b, 0xff52);
+    const t = b.slice();
+    t[cod + 13] = 2; // SPcod transformation (A.6.1: after Scod, SGcod 4 bytes, levels, xcb, ycb, style)
+    expect(() => decodeJ2k(t)).toThrow(UnsupportedError);
+    expect(() => decodeJ2k(t)).toThrow(/wavelet transform 2/);
+    const l = b.slice();
+    l[cod + 9] = 40;
+    expect(() => decodeJ2k(l)).toThrow(/40 decomposition levels/);
+  });
+
+  it('streams set apart by the fixture README: a typed error, never a crash', () => {
+    // no guard bits: the encoder's passes outrun the bit-planes Mb allows (E.1.1, B.10.5)
+    const g = all.find((x) => x.name === 'guard0')!;
+    expect(() => decodeJ2k(bytes(g.file))).toThrow(/more coding passes than its \d+ bit-planes allow/);
+    // overlapping POC records: the packets the progressions name outrun the data
+    const p = all.find((x) => x.name === 'poc-overlap')!;
+    expect(() => decodeJ2k(bytes(p.file))).toThrow(DecodeError);
+  });
+});
+
+function findMarker(b: Uint8Array, code: number): number {
+  for (let i = 0; i + 1 < b.length; i++) if (b[i] === code >> 8 && b[i + 1] === (code & 0xff)) return i;
+  throw new Error(`marker ${code.toString(16)} not in fixture`);
+}
