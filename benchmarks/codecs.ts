@@ -1,7 +1,8 @@
 /**
  * Codec benchmark: CCSDS/AEC decode rate on a ~1M-sample field (1440 × 721) beside libaec's
  * `aec -d` on the same stream, unpackUnsigned rates, and JPEG 2000 / PNG decode times beside
- * ecCodes (python3-eccodes) decoding the same GRIB2 messages.
+ * ecCodes (python3-eccodes) decoding the same GRIB2 messages. JPEG 2000 up to 16 bits is the
+ * OpenJPEG wasm build, above it our own decoder (lib/codecs/j2k), also timed at 12 and 16 bits.
  *
  * Run:  node --import tsx benchmarks/codecs.ts
  * Needs: aec (libaec-tools), /usr/bin/python3 with eccodes and numpy.
@@ -10,7 +11,7 @@ import { execFileSync, spawnSync } from 'node:child_process';
 import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { aecDecode, decodeJpeg2000, decodePngSamples, unpackUnsigned } from '../lib/codecs/index.js';
+import { aecDecode, decodeJ2k, decodeJpeg2000, decodePngSamples, unpackUnsigned } from '../lib/codecs/index.js';
 
 const PYTHON = '/usr/bin/python3';
 const NX = 1440;
@@ -102,7 +103,7 @@ import sys, json, time, numpy as np, eccodes
 out = []
 y, x = np.mgrid[0:${NY}, 0:${NX}]
 v = 250 + 40 * np.cos(y / ${NY} * np.pi) * np.sin(x / ${NX} * 6.283 * 3) + 0.3 * np.random.default_rng(1).random((${NY}, ${NX}))
-for packing, bits in (('grid_jpeg', 12), ('grid_jpeg', 16), ('grid_png', 16), ('grid_png', 24)):
+for packing, bits in (('grid_jpeg', 12), ('grid_jpeg', 16), ('grid_jpeg', 20), ('grid_jpeg', 24), ('grid_png', 16), ('grid_png', 24)):
     gid = eccodes.codes_grib_new_from_samples('regular_ll_sfc_grib2')
     for k, val in (('Ni', ${NX}), ('Nj', ${NY}), ('iDirectionIncrementInDegrees', 0.25), ('jDirectionIncrementInDegrees', 0.25),
                    ('latitudeOfFirstGridPointInDegrees', 90), ('longitudeOfFirstGridPointInDegrees', 0),
@@ -140,10 +141,16 @@ async function main(): Promise<void> {
       decodePngSamples(bytes);
       t = best(5, () => decodePngSamples(bytes));
     }
+    const via = img.name.startsWith('grid_jpeg') ? (img.bits > 16 ? ' (j2k)' : ' (wasm)') : '';
     console.log(
-      `${img.name.padEnd(12)} ${(bytes.length / 1024).toFixed(0).padStart(5)} KiB  ours ${t.toFixed(1).padStart(6)} ms` +
+      `${(img.name + via).padEnd(19)} ${(bytes.length / 1024).toFixed(0).padStart(5)} KiB  ours ${t.toFixed(1).padStart(6)} ms` +
         `   ecCodes codes_get_values (whole message) ${img.eccodesMs.toFixed(1).padStart(6)} ms   speed ours ÷ ecCodes ${(img.eccodesMs / t).toFixed(2)}`,
     );
+    if (img.name.startsWith('grid_jpeg') && img.bits <= 16) {
+      // our own JPEG 2000 decoder on the same stream, for comparison with the wasm build
+      const own = best(3, () => decodeJ2k(bytes));
+      console.log(`${(img.name + ' (j2k)').padEnd(19)}        ours ${own.toFixed(1).padStart(6)} ms   ÷ ecCodes ${(img.eccodesMs / own).toFixed(2)}`);
+    }
   }
 }
 
