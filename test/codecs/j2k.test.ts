@@ -161,6 +161,16 @@ describe('bad or unsupported codestreams: typed errors that say what is wrong', 
     expect(() => decodeJ2k(l)).toThrow(/40 decomposition levels/);
   });
 
+  it('packed packet headers (PPM) are refused by name, not misread', () => {
+    const b = base();
+    const sot = findMarker(b, 0xff90);
+    // a PPM segment (A.7.4: Zppm, then Nppm and the packed headers) just before the first SOT
+    const ppm = [0xff, 0x60, 0, 8, 0, 0, 0, 0, 1, 0];
+    const withPpm = new Uint8Array([...b.subarray(0, sot), ...ppm, ...b.subarray(sot)]);
+    expect(() => decodeJ2k(withPpm)).toThrow(UnsupportedError);
+    expect(() => decodeJ2k(withPpm)).toThrow(/packed packet headers \(PPM marker\)/);
+  });
+
   it('streams set apart by the fixture README: a typed error, never a crash', () => {
     // no guard bits: the encoder's passes outrun the bit-planes Mb allows (E.1.1, B.10.5)
     const g = all.find((x) => x.name === 'guard0')!;

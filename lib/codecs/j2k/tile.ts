@@ -159,7 +159,6 @@ export function layoutTile(size: ImageSize, tile: TileData): TileLayout {
     const px0 = floorDiv(rx0, 2 ** ppx);
     const py0 = floorDiv(ry0, 2 ** ppy);
     const precincts: Precinct[] = [];
-    const { tx0: refX0, ty0: refY0 } = { tx0, ty0 };
     for (let j = 0; j < precinctsY; j++) {
       for (let i = 0; i < precinctsX; i++) {
         const pbs: PrecinctBand[] = bands.map((band) => {
@@ -208,8 +207,8 @@ export function layoutTile(size: ImageSize, tile: TileData): TileLayout {
         const cornerY = (py0 + j) * 2 ** ppy;
         precincts.push({
           bands: pbs,
-          refX: cornerX < rx0 || (i === 0 && rx0 % 2 ** ppx !== 0) ? refX0 : cornerX * scaleX,
-          refY: cornerY < ry0 || (j === 0 && ry0 % 2 ** ppy !== 0) ? refY0 : cornerY * scaleY,
+          refX: cornerX < rx0 || (i === 0 && rx0 % 2 ** ppx !== 0) ? tx0 : cornerX * scaleX,
+          refY: cornerY < ry0 || (j === 0 && ry0 % 2 ** ppy !== 0) ? ty0 : cornerY * scaleY,
         });
       }
     }
