@@ -11,7 +11,7 @@
 import { DecodeError, UnsupportedError } from '../../errors.js';
 import { readCodestream, type TileData, type ImageSize } from './markers.js';
 import { layoutTile, type TileLayout } from './tile.js';
-import { FLAG_NEGATIVE, Tier1Workspace, decodeCodeBlock } from './tier1.js';
+import { CodeBlockDecoder, FLAG_NEGATIVE } from './tier1.js';
 import { PacketStream, packetOrder, readPacket } from './tier2.js';
 import { inverseTransform } from './dwt.js';
 
@@ -43,7 +43,7 @@ function roundHalfEven(v: number): number {
 
 /** Tier-1 for every code-block of the tile, dequantized into the subband layout of `buf`. */
 function decodeBlocks(tile: TileData, layout: TileLayout, buf: Int32Array | Float32Array, stride: number): void {
-  const ws = new Tier1Workspace();
+  const ws = new CodeBlockDecoder();
   const reversible = tile.coding.reversible;
   const roi = tile.roiShift;
   const roiThreshold = 2 ** (roi + 1); // a magnitude of 2^roi or more, in units of ½
@@ -72,10 +72,7 @@ function decodeBlocks(tile: TileData, layout: TileLayout, buf: Int32Array | Floa
           }
           const w = block.x1 - block.x0;
           const h = block.y1 - block.y0;
-          const cstride = decodeCodeBlock(
-            { width: w, height: h, band: band.type, style: tile.coding.cbStyle, planes, segments: block.segments },
-            ws,
-          );
+          const cstride = ws.decode({ width: w, height: h, band: band.type, style: tile.coding.cbStyle, planes, segments: block.segments });
           const mag = ws.mag;
           const flags = ws.flags;
           let out = (band.bufferY + block.y0 - band.y0) * stride + band.bufferX + block.x0 - band.x0;

@@ -2,9 +2,9 @@
  * The MQ arithmetic decoder of JPEG 2000 (ISO/IEC 15444-1 Annex C) and the raw bit reader of the
  * arithmetic-coding bypass (Annex D.6).
  *
- * Contexts are two parallel arrays (state index, MPS), so a code-block's 19 contexts cost two
- * small typed arrays and no objects. Bytes past the end of a codeword segment read as 0xFF, as
- * C.3.4 prescribes for the decoder (the encoder's flushed tail is implied).
+ * A code-block's 19 contexts are one small typed array, a byte each. Bytes past the end of a
+ * codeword segment read as 0xFF, as C.3.4 prescribes for the decoder (the encoder's flushed
+ * tail is implied).
  */
 
 /** Table C.2: probability estimate Qe, next state after MPS and after LPS, and the MPS switch. */
@@ -34,35 +34,41 @@ export const CTX_RUN = 17;
 export const CTX_UNIFORM = 18;
 export const CONTEXT_COUNT = 19;
 
-/** The 19 contexts of a code-block: state index and most probable symbol per context. */
-export interface MqContexts {
-  state: Uint8Array;
-  mps: Uint8Array;
+/*
+ * A context is one byte, state index × 2 + MPS; these tables give, by that byte, Qe and the byte
+ * after an MPS or an LPS renormalisation (the LPS one with the MPS switch applied).
+ */
+const PACKED = 2 * QE.length;
+const QE_OF = new Uint16Array(PACKED);
+const AFTER_MPS = new Uint8Array(PACKED);
+const AFTER_LPS = new Uint8Array(PACKED);
+for (let v = 0; v < PACKED; v++) {
+  const s = v >> 1;
+  const mps = v & 1;
+  QE_OF[v] = QE[s];
+  AFTER_MPS[v] = (NMPS[s] << 1) | mps;
+  AFTER_LPS[v] = (NLPS[s] << 1) | (SWITCH[s] === 1 ? 1 - mps : mps);
 }
 
-export function newContexts(): MqContexts {
-  const c = { state: new Uint8Array(CONTEXT_COUNT), mps: new Uint8Array(CONTEXT_COUNT) };
-  resetContexts(c);
-  return c;
-}
-
-/** Table D.7: every context starts in state 0 except uniform (46), run-length (3) and zero-coding context 0 (4). */
-export function resetContexts(c: MqContexts): void {
-  c.state.fill(0);
-  c.mps.fill(0);
-  c.state[CTX_UNIFORM] = 46;
-  c.state[CTX_RUN] = 3;
-  c.state[0] = 4;
-}
-
-/** C.3: the decoder registers over one codeword segment `data[start, end)`. */
+/** C.3: the decoder registers over one codeword segment, and a code-block's 19 contexts. */
 export class MqDecoder {
+  /** Contexts, state × 2 + MPS each. */
+  readonly contexts = new Uint8Array(CONTEXT_COUNT);
   private data: Uint8Array = new Uint8Array(0);
   private pos = 0;
   private end = 0;
   private a = 0;
   private c = 0;
   private ct = 0;
+
+  /** Table D.7: every context starts in state 0 except uniform (46), run-length (3) and zero-coding context 0 (4). */
+  resetContexts(): void {
+    const x = this.contexts;
+    x.fill(0);
+    x[CTX_UNIFORM] = 46 << 1;
+    x[CTX_RUN] = 3 << 1;
+    x[0] = 4 << 1;
+  }
 
   /** INITDEC (C.3.5) on a new codeword segment. */
   init(data: Uint8Array, start: number, end: number): void {
@@ -100,43 +106,55 @@ export class MqDecoder {
   }
 
   /** DECODE (C.3.2) one binary decision in context `cx`. */
-  decode(ctx: MqContexts, cx: number): number {
-    const state = ctx.state;
-    const s = state[cx];
-    const qe = QE[s];
+  decode(cx: number): number {
+    const contexts = this.contexts;
+    const v = contexts[cx];
+    const qe = QE_OF[v];
+    let a = this.a - qe;
+    let c = this.c;
     let d: number;
-    this.a -= qe;
-    if (this.c >>> 16 < qe) {
-      // the LPS sub-interval [0, Qe) lies below the MPS one; LPS_EXCHANGE (C.3.2, Figure C.17)
-      if (this.a < qe) {
-        d = ctx.mps[cx];
-        state[cx] = NMPS[s];
+    if (c >>> 16 < qe) {
+      // the LPS sub-interval [0, Qe) lies below the MPS one; LPS_EXCHANGE (Figure C.17)
+      if (a < qe) {
+        d = v & 1;
+        contexts[cx] = AFTER_MPS[v];
       } else {
-        d = 1 - ctx.mps[cx];
-        if (SWITCH[s] === 1) ctx.mps[cx] = d;
-        state[cx] = NLPS[s];
+        d = 1 - (v & 1);
+        contexts[cx] = AFTER_LPS[v];
       }
-      this.a = qe;
+      a = qe;
     } else {
-      this.c = (this.c - qe * 0x10000) >>> 0;
-      if ((this.a & 0x8000) !== 0) return ctx.mps[cx];
+      c = (c - qe * 0x10000) >>> 0;
+      if ((a & 0x8000) !== 0) {
+        this.a = a;
+        this.c = c;
+        return v & 1;
+      }
       // MPS_EXCHANGE (Figure C.16)
-      if (this.a < qe) {
-        d = 1 - ctx.mps[cx];
-        if (SWITCH[s] === 1) ctx.mps[cx] = d;
-        state[cx] = NLPS[s];
+      if (a < qe) {
+        d = 1 - (v & 1);
+        contexts[cx] = AFTER_LPS[v];
       } else {
-        d = ctx.mps[cx];
-        state[cx] = NMPS[s];
+        d = v & 1;
+        contexts[cx] = AFTER_MPS[v];
       }
     }
     // RENORMD
+    let ct = this.ct;
     do {
-      if (this.ct === 0) this.byteIn();
-      this.a <<= 1;
-      this.c = (this.c << 1) >>> 0;
-      this.ct--;
-    } while ((this.a & 0x8000) === 0);
+      if (ct === 0) {
+        this.c = c;
+        this.byteIn();
+        c = this.c;
+        ct = this.ct;
+      }
+      a <<= 1;
+      c = (c << 1) >>> 0;
+      ct--;
+    } while ((a & 0x8000) === 0);
+    this.a = a;
+    this.c = c;
+    this.ct = ct;
     return d;
   }
 }

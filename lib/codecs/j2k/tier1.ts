@@ -14,7 +14,7 @@
  */
 import { DecodeError } from '../../errors.js';
 import * as mqModule from './mq.js';
-import { MqDecoder, RawDecoder, newContexts, resetContexts } from './mq.js';
+import { MqDecoder, RawDecoder } from './mq.js';
 
 // Module-local copies: the hot loops below read plain constants, not imported bindings.
 const CTX_REFINE: number = mqModule.CTX_REFINE;
@@ -99,28 +99,6 @@ export interface CodeBlockCoding {
   segments: readonly Segment[];
 }
 
-/** Reused working arrays (one per decoder, grown as needed). */
-export class Tier1Workspace {
-  flags = new Uint8Array(0);
-  nb = new Uint8Array(0);
-  mag = new Int32Array(0);
-  readonly contexts = newContexts();
-  readonly mq = new MqDecoder();
-  readonly raw = new RawDecoder();
-
-  prepare(size: number): void {
-    if (this.flags.length < size) {
-      this.flags = new Uint8Array(size);
-      this.nb = new Uint8Array(size);
-      this.mag = new Int32Array(size);
-    } else {
-      this.flags.fill(0, 0, size);
-      this.nb.fill(0, 0, size);
-      this.mag.fill(0, 0, size);
-    }
-  }
-}
-
 function joinSegment(s: Segment): Uint8Array {
   if (s.chunks.length === 1) return s.chunks[0];
   const out = new Uint8Array(s.length);
@@ -133,49 +111,102 @@ function joinSegment(s: Segment): Uint8Array {
 }
 
 /**
- * Decodes a code-block's passes into `ws.mag` / `ws.flags` (padded layout, stride width + 2).
- * @returns the stride of the padded arrays.
+ * Decodes code-blocks one after another, reusing its arrays. After `decode`, `mag` and `flags`
+ * hold the block's coefficients in the padded layout (stride = width + 2, first sample at
+ * stride + 1); `FLAG_NEGATIVE` in `flags` marks the negative ones.
  */
-export function decodeCodeBlock(cb: CodeBlockCoding, ws: Tier1Workspace): number {
-  const w = cb.width;
-  const h = cb.height;
-  const stride = w + 2;
-  ws.prepare(stride * (h + 2));
-  const flags = ws.flags;
-  const nb = ws.nb;
-  const mag = ws.mag;
-  const ctx = ws.contexts;
-  resetContexts(ctx);
-  const mq = ws.mq;
-  const raw = ws.raw;
-  const zc = ZC_BY_BAND[cb.band];
-  const vcausal = (cb.style & CB_VCAUSAL) !== 0;
-  const reset = (cb.style & CB_RESET) !== 0;
-  const segsym = (cb.style & CB_SEGSYM) !== 0;
+export class CodeBlockDecoder {
+  flags = new Uint8Array(0);
+  nb = new Uint8Array(0);
+  mag = new Int32Array(0);
+  private readonly mq = new MqDecoder();
+  private readonly raw = new RawDecoder();
+  private w = 0;
+  private h = 0;
+  private stride = 0;
+  private zc: Uint8Array = ZC_BY_BAND[0];
+  private vcausal = false;
 
-  /** Marks (x, y) significant and tells its neighbours. */
-  const becomeSignificant = (i: number, y: number, negative: number, plane: number): void => {
-    flags[i] |= negative ? SIG | NEG : SIG;
-    mag[i] = 3 << plane;
+  private prepare(size: number): void {
+    if (this.flags.length < size) {
+      this.flags = new Uint8Array(size);
+      this.nb = new Uint8Array(size);
+      this.mag = new Int32Array(size);
+    } else {
+      this.flags.fill(0, 0, size);
+      this.nb.fill(0, 0, size);
+      this.mag.fill(0, 0, size);
+    }
+  }
+
+  /** Decodes the block's passes. @returns the stride of the padded arrays. */
+  decode(cb: CodeBlockCoding): number {
+    this.w = cb.width;
+    this.h = cb.height;
+    const stride = (this.stride = cb.width + 2);
+    this.prepare(stride * (cb.height + 2));
+    this.zc = ZC_BY_BAND[cb.band];
+    this.vcausal = (cb.style & CB_VCAUSAL) !== 0;
+    const reset = (cb.style & CB_RESET) !== 0;
+    const segsym = (cb.style & CB_SEGSYM) !== 0;
+    const mq = this.mq;
+    mq.resetContexts();
+    let plane = cb.planes - 1;
+    let type = PASS_CLEANUP;
+    for (const seg of cb.segments) {
+      if (seg.passes === 0) continue;
+      const data = joinSegment(seg);
+      if (seg.raw) this.raw.init(data, 0, data.length);
+      else mq.init(data, 0, data.length);
+      for (let k = 0; k < seg.passes; k++) {
+        if (plane < 0) {
+          throw new DecodeError(`JPEG 2000: code-block has more coding passes than its ${cb.planes} bit-planes allow`);
+        }
+        if (type === PASS_SIGNIFICANCE) {
+          if (seg.raw) this.significanceRaw(plane);
+          else this.significance(plane);
+        } else if (type === PASS_REFINEMENT) this.refinement(plane, seg.raw);
+        else {
+          this.cleanup(plane);
+          if (segsym) this.segmentationSymbol();
+        }
+        if (reset) mq.resetContexts();
+        if (type === PASS_CLEANUP) {
+          type = PASS_SIGNIFICANCE;
+          plane--;
+        } else type++;
+      }
+    }
+    return stride;
+  }
+
+  /** Marks the coefficient at i (row y) significant and tells its neighbours. */
+  private becomeSignificant(i: number, y: number, negative: number, plane: number): void {
+    const nb = this.nb;
+    const stride = this.stride;
+    this.flags[i] |= negative ? SIG | NEG : SIG;
+    this.mag[i] = 3 << plane;
     // horizontal neighbours +1, vertical +4, diagonal +16
     nb[i - 1] += 1;
     nb[i + 1] += 1;
     nb[i + stride] += 4;
     nb[i + stride - 1] += 16;
     nb[i + stride + 1] += 16;
-    if (!(vcausal && (y & 3) === 0)) {
+    if (!(this.vcausal && (y & 3) === 0)) {
       nb[i - stride] += 4;
       nb[i - stride - 1] += 16;
       nb[i - stride + 1] += 16;
     }
-  };
+  }
 
   /** Sign decoding (D.3.2, Tables D.2 and D.3) of the coefficient at i, row y. */
-  const decodeSign = (i: number, y: number): number => {
+  private decodeSign(i: number, y: number): number {
+    const flags = this.flags;
+    const stride = this.stride;
     const fl = flags[i - 1];
     const fr = flags[i + 1];
     const fu = flags[i - stride];
-    const fd = vcausal && (y & 3) === 3 ? 0 : flags[i + stride];
+    const fd = this.vcausal && (y & 3) === 3 ? 0 : flags[i + stride];
     let hc = (fl & SIG ? (fl & NEG ? -1 : 1) : 0) + (fr & SIG ? (fr & NEG ? -1 : 1) : 0);
     let vc = (fu & SIG ? (fu & NEG ? -1 : 1) : 0) + (fd & SIG ? (fd & NEG ? -1 : 1) : 0);
     hc = hc > 0 ? 1 : hc < 0 ? -1 : 0;
@@ -187,28 +218,39 @@ export function decodeCodeBlock(cb: CodeBlockCoding, ws: Tier1Workspace): number
       xor = 1;
     }
     // (1,1)→13 (1,0)→12 (1,−1)→11 (0,1)→10 (0,0)→9
-    const cx = hc === 1 ? CTX_SIGN + 3 + vc : CTX_SIGN + vc;
-    return mq.decode(ctx, cx) ^ xor;
-  };
+    return this.mq.decode(hc === 1 ? CTX_SIGN + 3 + vc : CTX_SIGN + vc) ^ xor;
+  }
 
-  const significancePass = (plane: number, bypass: boolean): void => {
+  private significance(plane: number): void {
+    const { flags, nb, zc, mq, w, h, stride } = this;
     for (let y0 = 0; y0 < h; y0 += 4) {
       const y1 = Math.min(y0 + 4, h);
       for (let x = 0; x < w; x++) {
         for (let y = y0, i = (y0 + 1) * stride + x + 1; y < y1; y++, i += stride) {
           if ((flags[i] & SIG) !== 0 || nb[i] === 0) continue;
-          if (bypass) {
-            if (raw.bit() === 1) becomeSignificant(i, y, raw.bit(), plane);
-          } else if (mq.decode(ctx, zc[nb[i]]) === 1) {
-            becomeSignificant(i, y, decodeSign(i, y), plane);
-          }
+          if (mq.decode(zc[nb[i]]) === 1) this.becomeSignificant(i, y, this.decodeSign(i, y), plane);
           flags[i] |= VISITED;
         }
       }
     }
-  };
+  }
 
-  const refinementPass = (plane: number, bypass: boolean): void => {
+  private significanceRaw(plane: number): void {
+    const { flags, nb, raw, w, h, stride } = this;
+    for (let y0 = 0; y0 < h; y0 += 4) {
+      const y1 = Math.min(y0 + 4, h);
+      for (let x = 0; x < w; x++) {
+        for (let y = y0, i = (y0 + 1) * stride + x + 1; y < y1; y++, i += stride) {
+          if ((flags[i] & SIG) !== 0 || nb[i] === 0) continue;
+          if (raw.bit() === 1) this.becomeSignificant(i, y, raw.bit(), plane);
+          flags[i] |= VISITED;
+        }
+      }
+    }
+  }
+
+  private refinement(plane: number, bypass: boolean): void {
+    const { flags, nb, mag, mq, raw, w, h, stride } = this;
     const step = 1 << plane;
     for (let y0 = 0; y0 < h; y0 += 4) {
       const y1 = Math.min(y0 + 4, h);
@@ -216,17 +258,18 @@ export function decodeCodeBlock(cb: CodeBlockCoding, ws: Tier1Workspace): number
         for (let y = y0, i = (y0 + 1) * stride + x + 1; y < y1; y++, i += stride) {
           const f = flags[i];
           if ((f & (SIG | VISITED)) !== SIG) continue;
-          let bit: number;
-          if (bypass) bit = raw.bit();
-          else bit = mq.decode(ctx, f & REFINED ? CTX_REFINE + 2 : nb[i] !== 0 ? CTX_REFINE + 1 : CTX_REFINE);
+          const bit = bypass
+            ? raw.bit()
+            : mq.decode(f & REFINED ? CTX_REFINE + 2 : nb[i] !== 0 ? CTX_REFINE + 1 : CTX_REFINE);
           mag[i] += bit ? step : -step;
           flags[i] = f | REFINED;
         }
       }
     }
-  };
+  }
 
-  const cleanupPass = (plane: number): void => {
+  private cleanup(plane: number): void {
+    const { flags, nb, zc, mq, w, h, stride } = this;
     for (let y0 = 0; y0 < h; y0 += 4) {
       const y1 = Math.min(y0 + 4, h);
       for (let x = 0; x < w; x++) {
@@ -240,59 +283,31 @@ export function decodeCodeBlock(cb: CodeBlockCoding, ws: Tier1Workspace): number
             ((flags[top] | flags[i1] | flags[i2] | flags[i3]) & (SIG | VISITED)) === 0 &&
             (nb[top] | nb[i1] | nb[i2] | nb[i3]) === 0
           ) {
-            if (mq.decode(ctx, CTX_RUN) === 0) continue; // all four stay insignificant
-            const r = (mq.decode(ctx, CTX_UNIFORM) << 1) | mq.decode(ctx, CTX_UNIFORM);
+            if (mq.decode(CTX_RUN) === 0) continue; // all four stay insignificant
+            const r = (mq.decode(CTX_UNIFORM) << 1) | mq.decode(CTX_UNIFORM);
             y = y0 + r;
             const i = top + r * stride;
-            becomeSignificant(i, y, decodeSign(i, y), plane);
+            this.becomeSignificant(i, y, this.decodeSign(i, y), plane);
             y++;
           }
         }
         for (let i = top + (y - y0) * stride; y < y1; y++, i += stride) {
-          const f = flags[i];
-          if ((f & (SIG | VISITED)) === 0 && mq.decode(ctx, zc[nb[i]]) === 1) {
-            becomeSignificant(i, y, decodeSign(i, y), plane);
+          if ((flags[i] & (SIG | VISITED)) === 0 && mq.decode(zc[nb[i]]) === 1) {
+            this.becomeSignificant(i, y, this.decodeSign(i, y), plane);
           }
         }
         for (let y2 = y0, i = top; y2 < y1; y2++, i += stride) flags[i] &= ~VISITED;
       }
     }
-    if (segsym) {
-      let symbol = 0;
-      for (let k = 0; k < 4; k++) symbol = (symbol << 1) | mq.decode(ctx, CTX_UNIFORM);
-      if (symbol !== 0b1010) throw new DecodeError(`JPEG 2000: code-block segmentation symbol is ${symbol.toString(2)}, not 1010`);
-    }
-  };
-
-  let plane = cb.planes - 1;
-  let type = PASS_CLEANUP;
-  let pass = 0;
-  for (const seg of cb.segments) {
-    if (seg.passes === 0) continue;
-    const data = joinSegment(seg);
-    if (seg.raw) raw.init(data, 0, data.length);
-    else mq.init(data, 0, data.length);
-    for (let k = 0; k < seg.passes; k++, pass++) {
-      if (plane < 0) {
-        throw new DecodeError(`JPEG 2000: code-block has more coding passes than its ${cb.planes} bit-planes allow`);
-      }
-      if (type === PASS_SIGNIFICANCE) significancePass(plane, seg.raw);
-      else if (type === PASS_REFINEMENT) refinementPass(plane, seg.raw);
-      else cleanupPass(plane);
-      if (reset) resetContexts(ctx);
-      if (type === PASS_CLEANUP) {
-        type = PASS_SIGNIFICANCE;
-        plane--;
-      } else type++;
-    }
   }
-  return stride;
+
+  /** D.5: after each cleanup pass, four uniform-context decisions that must read 1010. */
+  private segmentationSymbol(): void {
+    let symbol = 0;
+    for (let k = 0; k < 4; k++) symbol = (symbol << 1) | this.mq.decode(CTX_UNIFORM);
+    if (symbol !== 0b1010) throw new DecodeError(`JPEG 2000: code-block segmentation symbol is ${symbol.toString(2)}, not 1010`);
+  }
 }
 
-/** Whether the coefficient at padded index i is negative. */
-export function isNegative(ws: Tier1Workspace, i: number): boolean {
-  return (ws.flags[i] & NEG) !== 0;
-}
-
-/** Bit of the negative flag, for callers looping over `ws.flags`. */
+/** Bit of the negative flag, for callers looping over `flags`. */
 export const FLAG_NEGATIVE = NEG;
