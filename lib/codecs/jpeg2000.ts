@@ -9,7 +9,7 @@
  */
 import factory, { type OpenJpegModule } from '@cornerstonejs/codec-openjpeg/decodewasmjs';
 import { DecodeError, UnsupportedError } from '../errors.js';
-import { decodeJ2k } from './j2k/index.js';
+import { decodeJ2k, J2K_MAX_SAMPLES, type J2kLimits } from './j2k/index.js';
 
 export interface DecodedSamples {
   width: number;
@@ -59,7 +59,7 @@ function readSiz(
  * @throws DecodeError when the bytes are not a J2K codestream or a decoder rejects them;
  *   UnsupportedError for several components, signed samples or more than 32 bits per sample.
  */
-export async function decodeJpeg2000(codestream: Uint8Array): Promise<DecodedSamples> {
+export async function decodeJpeg2000(codestream: Uint8Array, limits: J2kLimits = {}): Promise<DecodedSamples> {
   const siz = readSiz(codestream);
   if (siz === undefined) {
     throw new DecodeError(`JPEG 2000: data does not start with a J2K codestream header (SOC, SIZ markers)`, { offset: 0 });
@@ -82,7 +82,11 @@ export async function decodeJpeg2000(codestream: Uint8Array): Promise<DecodedSam
       siz.bits,
     );
   }
-  if (siz.bits > JPEG2000_WASM_MAX_BITS) return decodeJ2k(codestream);
+  const most = limits.maxSamples ?? J2K_MAX_SAMPLES;
+  if (siz.width * siz.height > most) {
+    throw new DecodeError(`JPEG 2000: image of ${siz.width} × ${siz.height} samples, more than the ${most} it may hold here`);
+  }
+  if (siz.bits > JPEG2000_WASM_MAX_BITS) return decodeJ2k(codestream, limits);
   const oj = await openjpegModule();
   const decoder = new oj.J2KDecoder();
   try {

@@ -13,7 +13,7 @@ import { gunzipSync } from 'node:zlib';
 import { fileURLToPath } from 'node:url';
 import { describe, expect, it } from 'vitest';
 import { decodeJ2k, decodeJpeg2000 } from '../../lib/codecs/index.js';
-import { DecodeError, UnsupportedError } from '../../lib/errors.js';
+import { DecodeError, FrostgridError, UnsupportedError } from '../../lib/errors.js';
 import { readGribIndex } from '../../lib/formats/grib/index.js';
 
 const DIR = fileURLToPath(new URL('../../data-samples/fixtures/codecs/j2k/', import.meta.url));
@@ -159,6 +159,58 @@ describe('bad or unsupported codestreams: typed errors that say what is wrong', 
     const l = b.slice();
     l[cod + 9] = 40;
     expect(() => decodeJ2k(l)).toThrow(/40 decomposition levels/);
+  });
+
+  it('an absurd declared size is refused before anything is allocated', async () => {
+    const b = base();
+    // Xsiz, Ysiz (A.5.1) to 60000 × 60000
+    b.set([0, 0, 0xea, 0x60, 0, 0, 0xea, 0x60], 8);
+    expect(() => decodeJ2k(b)).toThrow(/image of 60000 × 60000 samples, more than the 268435456 it may hold here/);
+    // a GRIB message passes its point count as the bound, for either decoder
+    const f = fixtures.find((x) => x.name === 'grib2-24')!;
+    await expect(decodeJpeg2000(bytes(f.file), { maxSamples: f.width * f.height - 1 })).rejects.toThrow(/more than the \d+ it may hold/);
+    const small = fixtures.find((x) => x.name === 'grib2-12')!;
+    await expect(decodeJpeg2000(bytes(small.file), { maxSamples: 10 })).rejects.toThrow(DecodeError);
+  });
+
+  it('more packets declared than the packet data can hold', () => {
+    const b = base();
+    const cod = findMarker(b, 0xff52);
+    b.set([0xff, 0xff], cod + 6); // SGcod number of layers: 65535
+    expect(() => decodeJ2k(b)).toThrow(/declares \d+ packets \(layers × precincts\), more than its \d+ bytes/);
+  });
+
+  it('random damage to codestreams of every kind gives typed errors or samples, never a crash or a hang', () => {
+    // deterministic byte damage (common practice, no source): flipped bytes and cuts
+    let seed = 12345;
+    const rand = (n: number): number => {
+      seed = (Math.imul(seed, 1103515245) + 12345) >>> 0;
+      return seed % n;
+    };
+    const kinds = ['grib2-24', 'prog-PCRL', 'mode63-all', 'irr16-layers', 'roi', 'poc', 'tiles-edge', 'sop-eph'];
+    let decoded = 0;
+    let typed = 0;
+    for (const name of kinds) {
+      const f = all.find((x) => x.name === name)!;
+      const good = bytes(f.file);
+      for (let k = 0; k < 60; k++) {
+        const b = good.slice();
+        if (k % 4 === 3) {
+          const cut = new Uint8Array([...b.subarray(0, 2 + rand(b.length - 2)), 0xff, 0xd9]);
+          b.set(cut.subarray(0, Math.min(cut.length, b.length)));
+        }
+        for (let n = 1 + rand(4); n > 0; n--) b[rand(b.length)] = rand(256);
+        try {
+          decodeJ2k(b, { maxSamples: 1 << 20 });
+          decoded++;
+        } catch (e) {
+          if (!(e instanceof FrostgridError)) throw new Error(`${name}, damage ${k}: ${(e as Error).stack}`);
+          typed++;
+        }
+      }
+    }
+    expect(decoded + typed).toBe(kinds.length * 60);
+    expect(typed).toBeGreaterThan(0);
   });
 
   it('packed packet headers (PPM) are refused by name, not misread', () => {

@@ -10,10 +10,19 @@
  */
 import { DecodeError, UnsupportedError } from '../../errors.js';
 import { readCodestream, type TileData, type ImageSize } from './markers.js';
-import { layoutTile, type TileLayout } from './tile.js';
+import { layoutTile, packetCount, type TileLayout } from './tile.js';
 import { CodeBlockDecoder, FLAG_NEGATIVE } from './tier1.js';
 import { PacketStream, packetOrder, readPacket } from './tier2.js';
 import { inverseTransform } from './dwt.js';
+
+/** Bounds on what a codestream may make the decoder allocate. */
+export interface J2kLimits {
+  /** Most samples the image may have (GRIB: the points of the message). */
+  maxSamples?: number;
+}
+
+/** Samples decoded at most when no limit is given (2^28: a 1 GiB result). */
+export const J2K_MAX_SAMPLES = 2 ** 28;
 
 /** Decoded samples of the component, row by row. */
 export interface J2kSamples {
@@ -93,8 +102,15 @@ function decodeBlocks(tile: TileData, layout: TileLayout, buf: Int32Array | Floa
 }
 
 function decodeTile(size: ImageSize, tile: TileData, out: Uint32Array, width: number, imageX0: number, imageY0: number): void {
-  const layout = layoutTile(size, tile);
   const stream = new PacketStream(tile.data, tile.index);
+  // every packet takes at least one byte of packet data (B.9, B.10.3), which bounds the work
+  const packets = packetCount(size, tile);
+  if (packets > stream.bytes.length) {
+    throw new DecodeError(
+      `JPEG 2000: tile ${tile.index} declares ${packets} packets (layers × precincts), more than its ${stream.bytes.length} bytes of packet data can hold`,
+    );
+  }
+  const layout = layoutTile(size, tile);
   for (const p of packetOrder(layout, tile.coding, tile.progressions)) {
     readPacket(stream, layout.resolutions[p.resolution].precincts[p.precinct], p.layer, tile.coding);
   }
@@ -121,8 +137,8 @@ function decodeTile(size: ImageSize, tile: TileData, out: Uint32Array, width: nu
  *   UnsupportedError for what Part 1 allows but this decoder does not read (several components,
  *   signed samples, packed packet headers, more than 30 coded bit-planes).
  */
-export function decodeJ2k(codestream: Uint8Array): J2kSamples {
-  const cs = readCodestream(codestream);
+export function decodeJ2k(codestream: Uint8Array, limits: J2kLimits = {}): J2kSamples {
+  const cs = readCodestream(codestream, limits.maxSamples ?? J2K_MAX_SAMPLES);
   const size = cs.size;
   if (size.signed) throw new UnsupportedError('JPEG 2000: signed samples', 'JPEG 2000 signed samples', 'signed');
   if (size.precision > J2K_MAX_PRECISION) {
@@ -132,9 +148,6 @@ export function decodeJ2k(codestream: Uint8Array): J2kSamples {
   const y0 = Math.ceil(size.y0 / size.dy);
   const width = Math.ceil(size.x1 / size.dx) - x0;
   const height = Math.ceil(size.y1 / size.dy) - y0;
-  if (width * height > 2 ** 30) {
-    throw new DecodeError(`JPEG 2000: image of ${width} × ${height} samples is beyond what one GRIB field holds`);
-  }
   const values = new Uint32Array(width * height);
   for (const tile of cs.tiles) decodeTile(size, tile, values, width, x0, y0);
   return { width, height, bitsPerSample: size.precision, values };

@@ -344,8 +344,11 @@ function mergeQuantization(main: HeaderParts, tile: HeaderParts | undefined): Qu
   return q;
 }
 
-/** Parses the codestream structure: main header, tile-part headers and their data ranges. */
-export function readCodestream(b: Uint8Array): Codestream {
+/**
+ * Parses the codestream structure: main header, tile-part headers and their data ranges.
+ * @param maxSamples most samples the image may have; a larger SIZ is refused before anything else.
+ */
+export function readCodestream(b: Uint8Array, maxSamples: number): Codestream {
   const r = new Reader(b, 0);
   if (b.length < 4 || r.u16() !== SOC || r.u16() !== SIZ) {
     throw new DecodeError('JPEG 2000: data does not start with a J2K codestream header (SOC, SIZ markers)', { offset: 0 });
@@ -353,6 +356,13 @@ export function readCodestream(b: Uint8Array): Codestream {
   const sizLength = r.u16();
   if (sizLength < 41 || 4 + sizLength > b.length) fail(`SIZ segment of length ${sizLength} does not fit`, 2);
   const size = readSiz(r, 4 + sizLength, 2);
+  const width = Math.ceil(size.x1 / size.dx) - Math.ceil(size.x0 / size.dx);
+  const height = Math.ceil(size.y1 / size.dy) - Math.ceil(size.y0 / size.dy);
+  if (width * height > maxSamples) {
+    throw new DecodeError(`JPEG 2000: image of ${width} × ${height} samples, more than the ${maxSamples} it may hold here`, {
+      offset: 2,
+    });
+  }
   r.pos = 4 + sizLength;
   const main: HeaderParts = { poc: [] };
   let pos = readSegments(r, main, true);

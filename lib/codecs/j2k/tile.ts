@@ -88,6 +88,27 @@ export function tileBounds(size: ImageSize, t: number): { tx0: number; ty0: numb
   };
 }
 
+/**
+ * The number of packets of a tile (layers × precincts of all resolutions), from its geometry
+ * alone, so a codestream can be checked before its structures are built.
+ */
+export function packetCount(size: ImageSize, tile: TileData): number {
+  const { tx0, ty0, tx1, ty1 } = tileBounds(size, tile.index);
+  const cod = tile.coding;
+  let precincts = 0;
+  for (let r = 0; r <= cod.levels; r++) {
+    const scale = 2 ** (cod.levels - r);
+    const rx0 = ceilDiv(ceilDiv(tx0, size.dx), scale);
+    const ry0 = ceilDiv(ceilDiv(ty0, size.dy), scale);
+    const rx1 = ceilDiv(ceilDiv(tx1, size.dx), scale);
+    const ry1 = ceilDiv(ceilDiv(ty1, size.dy), scale);
+    const px = 2 ** cod.precinctWidthExp[r];
+    const py = 2 ** cod.precinctHeightExp[r];
+    if (rx1 > rx0 && ry1 > ry0) precincts += (ceilDiv(rx1, px) - floorDiv(rx0, px)) * (ceilDiv(ry1, py) - floorDiv(ry0, py));
+  }
+  return precincts * cod.layers;
+}
+
 /** Builds the resolution / band / precinct / code-block structure of a tile. */
 export function layoutTile(size: ImageSize, tile: TileData): TileLayout {
   const { tx0, ty0, tx1, ty1 } = tileBounds(size, tile.index);

@@ -286,7 +286,7 @@ function makeField(
   function unpack(): Float64Array | Promise<Float64Array> {
     try {
       const payload = src.read(sec7.start + 5, sec7.length - 5);
-      const r = data.template.decode(params, payload, count);
+      const r = data.template.decode(params, payload, count, npoints);
       if (r instanceof Promise) return r.then(finish, fail);
       return finish(r);
     } catch (e) {

@@ -29,9 +29,10 @@ export const jpeg2000Packing: DataTemplate = {
   name: 'jpeg2000',
   length: 23,
   read: (sec5, template) => ({ ...readScale(sec5), template, extra: { compressionType: u8(sec5, 21), targetRatio: u8(sec5, 22) } }),
-  decode(p, data, count) {
+  decode(p, data, count, points) {
     if (p.bitsPerValue === 0 || data.length === 0) return constantField(p, count);
-    return decodeJpeg2000(data).then(
+    // ecCodes writes an image of the packed values (count × 1 with a bitmap, else the grid)
+    return decodeJpeg2000(data, { maxSamples: Math.max(count, points) }).then(
       (img) => fromImage(img, count, p, 'JPEG 2000'),
       (e: unknown) => {
         throw wrap('JPEG 2000', e);

@@ -36,7 +36,8 @@ export interface DataTemplate {
   read(sec5: Uint8Array, template: number): PackingParameters;
   /**
    * Decodes `count` values from the section 7 payload (octets 6 onward). Values are physical
-   * (Y = (R + X·2^E)·10^−D); NaN marks values the packing itself declares missing.
+   * (Y = (R + X·2^E)·10^−D); NaN marks values the packing itself declares missing. `points` is
+   * the number of grid points, the most any packing may hold.
    */
-  decode(params: PackingParameters, data: Uint8Array, count: number): Float64Array | Promise<Float64Array>;
+  decode(params: PackingParameters, data: Uint8Array, count: number, points: number): Float64Array | Promise<Float64Array>;
 }
