@@ -9,15 +9,10 @@
  */
 import factory, { type OpenJpegModule } from '@cornerstonejs/codec-openjpeg/decodewasmjs';
 import { DecodeError, UnsupportedError } from '../errors.js';
-import { decodeJ2k, J2K_MAX_SAMPLES, type J2kLimits } from './j2k/index.js';
+import { decodeJ2k, J2K_MAX_SAMPLES, type J2kLimits, type J2kSamples } from './j2k/index.js';
 
-export interface DecodedSamples {
-  width: number;
-  height: number;
-  bitsPerSample: number;
-  /** Samples row by row, `width × height` of them. */
-  values: Uint32Array;
-}
+/** Decoded samples, row by row, `width × height` of them (either decoder). */
+export type DecodedSamples = J2kSamples;
 
 /** Largest precision the WebAssembly OpenJPEG build returns exactly; deeper ones use ./j2k/. */
 export const JPEG2000_WASM_MAX_BITS = 16;

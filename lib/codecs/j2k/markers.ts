@@ -45,12 +45,8 @@ export interface ImageSize {
   dy: number;
 }
 
-/** Coding style of the component (COD A.6.1 with COC A.6.2 and tile overrides applied). */
-export interface CodingStyle {
-  sop: boolean;
-  eph: boolean;
-  progression: number;
-  layers: number;
+/** The component part of COD/COC (SPcod, SPcoc; A.6.1, A.6.2). */
+export interface ComponentStyle {
   levels: number;
   /** Code-block width and height exponents (xcb, ycb of Table A.18 plus 2). */
   cbWidthExp: number;
@@ -60,6 +56,14 @@ export interface CodingStyle {
   /** Precinct size exponents per resolution level 0…levels (15 when not given). */
   precinctWidthExp: number[];
   precinctHeightExp: number[];
+}
+
+/** Coding style of the component: COD with COC and the tile's overrides applied. */
+export interface CodingStyle extends ComponentStyle {
+  sop: boolean;
+  eph: boolean;
+  progression: number;
+  layers: number;
 }
 
 /** Quantization (QCD A.6.4 / QCC A.6.5). */
@@ -88,17 +92,6 @@ interface HeaderParts {
   qcc?: Quantization;
   roiShift?: number;
   poc: ProgressionChange[];
-}
-
-/** The component part of COD/COC (SPcod, SPcoc). */
-interface ComponentStyle {
-  levels: number;
-  cbWidthExp: number;
-  cbHeightExp: number;
-  cbStyle: number;
-  reversible: boolean;
-  precinctWidthExp: number[];
-  precinctHeightExp: number[];
 }
 
 /** One tile: its index, its header overrides and its packet data (tile-parts in order). */
