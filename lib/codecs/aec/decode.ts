@@ -29,17 +29,19 @@ const SEGMENT_BLOCKS = 64;
  */
 const PAD_WORDS = 256;
 
-/** The input as big-endian 32-bit words, zero-padded. */
+const LITTLE_ENDIAN = new Uint8Array(new Uint32Array([1]).buffer)[0] === 1;
+
+/** The input as big-endian 32-bit words, zero-padded (a byte copy, then a swap in place). */
 function toWords(input: Uint8Array): Uint32Array {
-  const len = input.length;
-  const full = len >>> 2;
+  const full = input.length >>> 2;
   const words = new Uint32Array(full + 1 + PAD_WORDS);
-  for (let i = 0, p = 0; i < full; i++, p += 4) {
-    words[i] = (input[p] << 24) | (input[p + 1] << 16) | (input[p + 2] << 8) | input[p + 3];
+  new Uint8Array(words.buffer).set(input);
+  if (LITTLE_ENDIAN) {
+    for (let i = 0; i <= full; i++) {
+      const x = words[i];
+      words[i] = (x >>> 24) | ((x >>> 8) & 0xff00) | ((x << 8) & 0xff0000) | (x << 24);
+    }
   }
-  let last = 0;
-  for (let p = full * 4, shift = 24; p < len; p++, shift -= 8) last |= input[p] << shift;
-  words[full] = last;
   return words;
 }
 
@@ -99,9 +101,11 @@ function malformed(what: string, block: number, bitOffset: number): DecodeError 
 /**
  * Decodes `sampleCount` samples of a CCSDS 121.0-B adaptive entropy coded stream.
  *
- * @returns unsigned samples; with AEC_DATA_SIGNED the n-bit values are sign-extended to 32 bits
- *   (view the result's buffer as an Int32Array). The AEC_DATA_MSB and AEC_DATA_3BYTE flags only
- *   describe how libaec lays samples out in bytes and do not change the decoded values.
+ * @returns unsigned samples (a view that may end before its buffer does); with AEC_DATA_SIGNED
+ *   the n-bit values are sign-extended to 32 bits (read them as
+ *   `new Int32Array(out.buffer, out.byteOffset, out.length)`). The AEC_DATA_MSB and
+ *   AEC_DATA_3BYTE flags only describe how libaec lays samples out in bytes and do not change
+ *   the decoded values.
  * @throws RangeError for parameters outside the standard; DecodeError (with the byte offset)
  *   for a stream that is truncated or codes an impossible value.
  * @param counts when given, incremented with the coding options the stream used.
@@ -142,6 +146,7 @@ export function aecDecode(
 
   while (block < totalBlocks) {
     let inInterval = 0; // blocks already decoded in this RSI
+    const intervalStart = block * J;
     while (inInterval < rsi && block < totalBlocks) {
       const blockStart = block * J;
       const blockEnd = blockStart + J;
@@ -269,43 +274,68 @@ export function aecDecode(
           const k = id - 1;
           const fsMax = maxValue >>> k;
           const first = i;
+          // A window of the next `valid` bits, left-aligned (the bits below are zeros): most
+          // codes end inside it, so the words are read once per window, not once per code.
+          // `pos` counts bits from the start of word `base`; (wi, bp) are brought up to date at
+          // the end (a block spans far fewer than 2^31 bits, or the checks below stop it).
+          const base = wi;
+          let pos = bp;
+          let win = (words[wi] << bp) | ((words[wi + 1] >>> 1) >>> (31 - bp));
+          let valid = 32;
           for (; i < blockEnd; i++) {
-            let fs = 0;
-            w = (words[wi] << bp) | ((words[wi + 1] >>> 1) >>> (31 - bp));
-            while (w === 0) {
-              fs += 32;
-              wi++;
-              if (wi * 32 + bp > lenBits) throw truncated(i, sampleCount, 'in a fundamental-sequence code', len);
-              if (fs > fsMax) {
-                throw malformed(`split-sample high part ${fs} (k = ${k}) exceeds ${n} bits`, block, wi * 32 + bp);
-              }
+            let fs = Math.clz32(win);
+            if (fs < valid) {
+              win = fs === 31 ? 0 : win << (fs + 1);
+              valid -= fs + 1;
+              pos += fs + 1;
+            } else {
+              // the code runs past the window: read it from the words
+              wi = base + (pos >>> 5);
+              bp = pos & 31;
+              fs = 0;
               w = (words[wi] << bp) | ((words[wi + 1] >>> 1) >>> (31 - bp));
-            }
-            const z = Math.clz32(w);
-            fs += z;
-            bp += z + 1;
-            if (bp >= 32) {
-              bp -= 32;
-              wi++;
+              while (w === 0) {
+                fs += 32;
+                wi++;
+                if (wi * 32 + bp > lenBits) throw truncated(i, sampleCount, 'in a fundamental-sequence code', len);
+                if (fs > fsMax) {
+                  throw malformed(`split-sample high part ${fs} (k = ${k}) exceeds ${n} bits`, block, wi * 32 + bp);
+                }
+                w = (words[wi] << bp) | ((words[wi + 1] >>> 1) >>> (31 - bp));
+              }
+              const z = Math.clz32(w);
+              fs += z;
+              pos = (wi - base) * 32 + bp + z + 1;
+              const q = base + (pos >>> 5);
+              const r = pos & 31;
+              win = (words[q] << r) | ((words[q + 1] >>> 1) >>> (31 - r));
+              valid = 32;
             }
             if (fs > fsMax) {
-              throw malformed(`split-sample high part ${fs} (k = ${k}) exceeds ${n} bits`, block, wi * 32 + bp);
+              throw malformed(`split-sample high part ${fs} (k = ${k}) exceeds ${n} bits`, block, base * 32 + pos);
             }
             out[i] = fs;
           }
           if (k > 0) {
             const shift = 32 - k;
+            valid = 0;
             for (let j = first; j < blockEnd; j++) {
+              if (valid < k) {
+                const q = base + (pos >>> 5);
+                const r = pos & 31;
+                win = (words[q] << r) | ((words[q + 1] >>> 1) >>> (31 - r));
+                valid = 32;
+              }
               // fs ≤ fsMax < 2^(32−k): the shift cannot lose bits (the int32 sign bit wraps back
               // to the unsigned value on store).
-              out[j] = (out[j] << k) | (((words[wi] << bp) | ((words[wi + 1] >>> 1) >>> (31 - bp))) >>> shift);
-              bp += k;
-              if (bp >= 32) {
-                bp -= 32;
-                wi++;
-              }
+              out[j] = (out[j] << k) | (win >>> shift);
+              win <<= k;
+              valid -= k;
+              pos += k;
             }
           }
+          wi = base + (pos >>> 5);
+          bp = pos & 31;
         }
         inInterval += 1;
         block += 1;
@@ -313,6 +343,12 @@ export function aecDecode(
       if (wi * 32 + bp > lenBits) {
         throw truncated(blockStart, sampleCount, `in block ${block - 1}`, len);
       }
+    }
+    // Undo the preprocessor while the interval is still in cache (one RSI per call).
+    if (preprocess) {
+      const part = out.subarray(intervalStart, block * J);
+      if (layout.signed) unmapSigned(part, part.length, n, part.length);
+      else unmapUnsigned(part, part.length, n, part.length);
     }
     if (padRsi) {
       const r = bp & 7;
@@ -326,11 +362,9 @@ export function aecDecode(
     }
   }
 
-  if (preprocess) {
-    if (layout.signed) unmapSigned(out, out.length, n, rsi * J);
-    else unmapUnsigned(out, out.length, n, rsi * J);
-  } else if (layout.signed) {
+  if (!preprocess && layout.signed) {
     signExtend(out, out.length, n);
   }
-  return out.length === sampleCount ? out : out.slice(0, sampleCount);
+  // the last block's padding samples stay in the buffer; the view ends at the count
+  return out.length === sampleCount ? out : out.subarray(0, sampleCount);
 }

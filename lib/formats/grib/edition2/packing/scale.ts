@@ -31,7 +31,7 @@ export function constantField(p: ScaleParameters, count: number): Float64Array {
 }
 
 /** Applies the simple-packing formula in place to unsigned integers. */
-export function scaleIntegers(ints: ArrayLike<number>, count: number, p: ScaleParameters, out: Float64Array): Float64Array {
+export function scaleIntegers(ints: Uint32Array, count: number, p: ScaleParameters, out: Float64Array): Float64Array {
   const { bscale, dscale, ref } = scaleFactors(p);
   for (let i = 0; i < count; i++) out[i] = (ints[i] * bscale + ref) * dscale;
   return out;
