@@ -135,8 +135,11 @@ export function aecDecode(
   const idShift = 32 - idLength;
   const maxValue = n === 32 ? 0xffffffff : 2 ** n - 1;
   const lenBits = len * 8;
-  const out = new Uint32Array(totalBlocks * J);
-  const words = toWords(input);
+  // Written and read through Int32Array views: V8 keeps int32 loads in integer registers, while
+  // Uint32Array loads above 2^31 would need float handling. The bit patterns are the same.
+  const result = new Uint32Array(totalBlocks * J);
+  const out = new Int32Array(result.buffer);
+  const words = new Int32Array(toWords(input).buffer);
 
   // Bit position: word `wi`, bit `bp` (0 = most significant) of that word. `peek` is the 32
   // bits from there: (words[wi] << bp) | (words[wi + 1] >>> (32 − bp)), written so bp = 0 works.
@@ -346,7 +349,7 @@ export function aecDecode(
     }
     // Undo the preprocessor while the interval is still in cache (one RSI per call).
     if (preprocess) {
-      const part = out.subarray(intervalStart, block * J);
+      const part = result.subarray(intervalStart, block * J);
       if (layout.signed) unmapSigned(part, part.length, n, part.length);
       else unmapUnsigned(part, part.length, n, part.length);
     }
@@ -363,8 +366,8 @@ export function aecDecode(
   }
 
   if (!preprocess && layout.signed) {
-    signExtend(out, out.length, n);
+    signExtend(result, result.length, n);
   }
   // the last block's padding samples stay in the buffer; the view ends at the count
-  return out.length === sampleCount ? out : out.subarray(0, sampleCount);
+  return result.length === sampleCount ? result : result.subarray(0, sampleCount);
 }
