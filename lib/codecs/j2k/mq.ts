@@ -58,6 +58,7 @@ export class MqDecoder {
   private pos = 0;
   private end = 0;
   private a = 0;
+  /** The code register C as a signed 32-bit integer (its bit pattern is what counts). */
   private c = 0;
   private ct = 0;
 
@@ -78,7 +79,7 @@ export class MqDecoder {
     const b = start < end ? data[start] : 0xff;
     this.c = b << 16;
     this.byteIn();
-    this.c = (this.c << 7) >>> 0;
+    this.c = this.c << 7;
     this.ct -= 7;
     this.a = 0x8000;
   }
@@ -90,17 +91,17 @@ export class MqDecoder {
     if (cur === 0xff) {
       const next = this.pos + 1 < this.end ? d[this.pos + 1] : 0xff;
       if (next > 0x8f) {
-        this.c = (this.c + 0xff00) >>> 0;
+        this.c = (this.c + 0xff00) | 0;
         this.ct = 8;
       } else {
         this.pos++;
-        this.c = (this.c + (next << 9)) >>> 0;
+        this.c = (this.c + (next << 9)) | 0;
         this.ct = 7;
       }
     } else {
       this.pos++;
       const b = this.pos < this.end ? d[this.pos] : 0xff;
-      this.c = (this.c + (b << 8)) >>> 0;
+      this.c = (this.c + (b << 8)) | 0;
       this.ct = 8;
     }
   }
@@ -124,7 +125,7 @@ export class MqDecoder {
       }
       a = qe;
     } else {
-      c = (c - qe * 0x10000) >>> 0;
+      c = (c - (qe << 16)) | 0;
       if ((a & 0x8000) !== 0) {
         this.a = a;
         this.c = c;
@@ -149,7 +150,7 @@ export class MqDecoder {
         ct = this.ct;
       }
       a <<= 1;
-      c = (c << 1) >>> 0;
+      c = c << 1;
       ct--;
     } while ((a & 0x8000) === 0);
     this.a = a;
