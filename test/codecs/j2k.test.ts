@@ -77,6 +77,13 @@ describe('decodeJ2k against GDAL (OpenJPEG 2.5.0) on every sample', () => {
   });
 });
 
+describe('decodeJpeg2000 up to 16 bits (the OpenJPEG wasm build) on the same fixtures', () => {
+  it.each(fixtures.filter((f) => f.bitsPerSample <= 16).map((f) => [f.name, f] as const))('%s', async (_n, f) => {
+    const got = await decodeJpeg2000(bytes(f.file));
+    expect(firstDifference(got, expectedSamples(f))).toBeUndefined();
+  });
+});
+
 describe('decodeJpeg2000 hands more than 16 bits per sample to our decoder', () => {
   it.each(fixtures.filter((f) => f.bitsPerSample > 16 && f.features.includes('eccodes')).map((f) => [f.name, f] as const))(
     '%s',
