@@ -38,6 +38,10 @@ const all = (JSON.parse(readFileSync(DIR + 'fixtures.json', 'utf8')) as { fixtur
 const SET_APART = new Set(['poc-overlap', 'guard0']);
 const fixtures = all.filter((f) => !SET_APART.has(f.name));
 
+/** Packet headers moved into PPM / PPT segments by make-packed.ts; expected: opj_decompress 2.5.0. */
+const packed = (JSON.parse(readFileSync(DIR + 'packed.json', 'utf8')) as { fixtures: (Fixture & { source: string; gdal: string })[] })
+  .fixtures;
+
 const bytes = (f: string): Uint8Array => new Uint8Array(readFileSync(DIR + f));
 function expectedSamples(f: Fixture): Uint32Array {
   const b = gunzipSync(readFileSync(DIR + f.expected));
@@ -61,6 +65,14 @@ describe('decodeJ2k against GDAL (OpenJPEG 2.5.0) on every sample', () => {
     // the committed record itself: digest and end samples as the generator wrote them
     expect(createHash('sha256').update(new Uint8Array(got.values.buffer)).digest('hex')).toBe(f.sha256);
     expect([...got.values.subarray(0, 5), ...got.values.subarray(got.values.length - 3)]).toEqual([...f.first5, ...f.last3]);
+  });
+
+  it.each(packed.map((f) => [`${f.name} (from ${f.source}; ${f.gdal})`, f] as const))('packed packet headers: %s', (_n, f) => {
+    const got = decodeJ2k(bytes(f.file));
+    expect(firstDifference(got, expectedSamples(f))).toBeUndefined();
+    // moving the headers changes nothing: the same samples as the source codestream
+    const source = all.find((x) => x.name === f.source)!;
+    expect(firstDifference(got, expectedSamples(source))).toBeUndefined();
   });
 
   it('the fixtures cover every precision 1–31 and every coding option the decoder reads', () => {
@@ -143,7 +155,7 @@ describe('bad or unsupported codestreams: typed errors that say what is wrong', 
     b.set([0, 0, 0, 0], sot + 6);
     const short = new Uint8Array([...b.subarray(0, Math.floor(b.length * 0.5)), 0xff, 0xd9]);
     expect(() => decodeJ2k(short)).toThrow(DecodeError);
-    expect(() => decodeJ2k(short)).toThrow(/tile 0: .*runs past the end of the tile data/);
+    expect(() => decodeJ2k(short)).toThrow(/tile 0: .*runs past the end of the (packet|tile) data/);
   });
 
   it('more than one component, signed samples', () => {
@@ -194,11 +206,11 @@ describe('bad or unsupported codestreams: typed errors that say what is wrong', 
       seed = (Math.imul(seed, 1103515245) + 12345) >>> 0;
       return seed % n;
     };
-    const kinds = ['grib2-24', 'prog-PCRL', 'mode63-all', 'irr16-layers', 'roi', 'poc', 'tiles-edge', 'sop-eph'];
+    const kinds = ['grib2-24', 'prog-PCRL', 'mode63-all', 'irr16-layers', 'roi', 'poc', 'tiles-edge', 'sop-eph', 'grib2-24-ppm', 'prog-PCRL-ppt'];
     let decoded = 0;
     let typed = 0;
     for (const name of kinds) {
-      const f = all.find((x) => x.name === name)!;
+      const f = [...all, ...packed].find((x) => x.name === name)!;
       const good = bytes(f.file);
       for (let k = 0; k < 60; k++) {
         const b = good.slice();
@@ -220,14 +232,29 @@ describe('bad or unsupported codestreams: typed errors that say what is wrong', 
     expect(typed).toBeGreaterThan(0);
   });
 
-  it('packed packet headers (PPM) are refused by name, not misread', () => {
-    const b = base();
-    const sot = findMarker(b, 0xff90);
-    // a PPM segment (A.7.4: Zppm, then Nppm and the packed headers) just before the first SOT
-    const ppm = [0xff, 0x60, 0, 8, 0, 0, 0, 0, 1, 0];
-    const withPpm = new Uint8Array([...b.subarray(0, sot), ...ppm, ...b.subarray(sot)]);
-    expect(() => decodeJ2k(withPpm)).toThrow(UnsupportedError);
-    expect(() => decodeJ2k(withPpm)).toThrow(/packed packet headers \(PPM marker\)/);
+  it('packed packet headers that do not add up', () => {
+    const ppm = bytes(packed.find((x) => x.name === 'tileparts-R-ppm')!.file);
+    // the first PPM segment starts where the main header's last segment ends; its first Nppm
+    // record (4 bytes after Lppm and Zppm) claims more bytes than the PPM segments hold
+    const at = findMarker(ppm, 0xff60);
+    const big = ppm.slice();
+    big.set([0, 0x10, 0, 0], at + 5);
+    expect(() => decodeJ2k(big)).toThrow(DecodeError);
+    expect(() => decodeJ2k(big)).toThrow(/PPM record of 1048576 bytes runs past the PPM segments/);
+    // a PPT segment moved into the main header
+    const ppt = bytes(packed.find((x) => x.name === 'sop-eph-ppt')!.file);
+    const moved = ppt.slice();
+    moved[at + 1] = 0x61;
+    expect(() => decodeJ2k(moved)).toThrow(/PPT segment in the main header/);
+    // headers cut short: drop the last 4 bytes of the only PPT segment (Lppt and Psot follow)
+    const p = findMarker(ppt, 0xff61);
+    const lppt = (ppt[p + 2] << 8) | ppt[p + 3];
+    const sot = findMarker(ppt, 0xff90);
+    const psot = ((ppt[sot + 6] << 24) | (ppt[sot + 7] << 16) | (ppt[sot + 8] << 8) | ppt[sot + 9]) >>> 0;
+    const short = new Uint8Array([...ppt.subarray(0, p + 2 + lppt - 4), ...ppt.subarray(p + 2 + lppt)]);
+    short.set([(lppt - 4) >> 8, (lppt - 4) & 255], p + 2);
+    short.set([(psot - 4) >>> 24, ((psot - 4) >>> 16) & 255, ((psot - 4) >>> 8) & 255, (psot - 4) & 255], sot + 6);
+    expect(() => decodeJ2k(short)).toThrow(/packet header runs past the end of the packed packet headers/);
   });
 
   it('streams set apart by the fixture README: a typed error, never a crash', () => {

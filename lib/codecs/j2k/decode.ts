@@ -6,7 +6,7 @@
  * Written for GRIB2 template 5.40, where a component may carry up to 31 bits; it reads any
  * Part 1 codestream of one component: several tiles and tile-parts, all five progression orders
  * and POC changes, precincts, layers, SOP/EPH, every code-block style, both transforms and
- * region-of-interest max-shift. Packed packet headers (PPM, PPT) are reported as unsupported.
+ * region-of-interest max-shift, and packet headers packed into PPM or PPT segments.
  */
 import { DecodeError, UnsupportedError } from '../../errors.js';
 import { readCodestream, type TileData, type ImageSize } from './markers.js';
@@ -103,16 +103,17 @@ function decodeBlocks(tile: TileData, layout: TileLayout, buf: Int32Array | Floa
 
 function decodeTile(size: ImageSize, tile: TileData, out: Uint32Array, width: number, imageX0: number, imageY0: number): void {
   const stream = new PacketStream(tile.data, tile.index);
-  // every packet takes at least one byte of packet data (B.9, B.10.3), which bounds the work
+  const headers = tile.headers === undefined ? stream : new PacketStream(tile.headers, tile.index, 'packed packet headers');
+  // every packet header takes at least one byte (B.9, B.10.3), which bounds the work
   const packets = packetCount(size, tile);
-  if (packets > stream.bytes.length) {
+  if (packets > headers.bytes.length) {
     throw new DecodeError(
-      `JPEG 2000: tile ${tile.index} declares ${packets} packets (layers × precincts), more than its ${stream.bytes.length} bytes of packet data can hold`,
+      `JPEG 2000: tile ${tile.index} declares ${packets} packets (layers × precincts), more than its ${headers.bytes.length} bytes of ${tile.headers === undefined ? 'packet data' : 'packed packet headers'} can hold`,
     );
   }
   const layout = layoutTile(size, tile);
   for (const p of packetOrder(layout, tile.coding, tile.progressions)) {
-    readPacket(stream, layout.resolutions[p.resolution].precincts[p.precinct], p.layer, tile.coding);
+    readPacket(headers, stream, layout.resolutions[p.resolution].precincts[p.precinct], p.layer, tile.coding);
   }
   const tw = layout.x1 - layout.x0;
   const th = layout.y1 - layout.y0;
@@ -135,7 +136,7 @@ function decodeTile(size: ImageSize, tile: TileData, out: Uint32Array, width: nu
  * Decodes a raw J2K codestream of one unsigned component.
  * @throws DecodeError when the bytes break the codestream syntax (naming what and the byte);
  *   UnsupportedError for what Part 1 allows but this decoder does not read (several components,
- *   signed samples, packed packet headers, more than 30 coded bit-planes).
+ *   signed samples, more than 30 coded bit-planes).
  */
 export function decodeJ2k(codestream: Uint8Array, limits: J2kLimits = {}): J2kSamples {
   const cs = readCodestream(codestream, limits.maxSamples ?? J2K_MAX_SAMPLES);

@@ -92,6 +92,8 @@ interface HeaderParts {
   qcc?: Quantization;
   roiShift?: number;
   poc: ProgressionChange[];
+  /** PPM (main header) or PPT (tile-part header) segments: index Zppm/Zppt and contents. */
+  packed?: { z: number; data: Uint8Array }[];
 }
 
 /** One tile: its index, its header overrides and its packet data (tile-parts in order). */
@@ -102,6 +104,8 @@ export interface TileData {
   roiShift: number;
   progressions: ProgressionChange[];
   data: Uint8Array[];
+  /** Packed packet headers (PPM or PPT, A.7.4–A.7.5), tile-part by tile-part, when the codestream has them. */
+  headers?: Uint8Array[];
 }
 
 export interface Codestream {
@@ -300,11 +304,10 @@ function readSegments(r: Reader, parts: HeaderParts, main: boolean): number {
         break;
       case PPM:
       case PPT:
-        throw new UnsupportedError(
-          `JPEG 2000: packed packet headers (${marker === PPM ? 'PPM' : 'PPT'} marker) are not supported`,
-          'JPEG 2000 marker',
-          marker === PPM ? 'PPM' : 'PPT',
-        );
+        if ((marker === PPM) !== main) fail(`${marker === PPM ? 'PPM' : 'PPT'} segment in the ${main ? 'main' : 'tile-part'} header`, at);
+        if (length < 3) fail(`${marker === PPM ? 'PPM' : 'PPT'} segment of length ${length}`, at);
+        (parts.packed ??= []).push({ z: r.u8(), data: b.subarray(at + 5, end) });
+        break;
       case TLM:
       case PLM:
       case PLT:
@@ -337,6 +340,18 @@ function mergeQuantization(main: HeaderParts, tile: HeaderParts | undefined): Qu
   return q;
 }
 
+/** PPM or PPT segment contents in the order of their index (Zppm, Zppt), one after another. */
+function joinPacked(segments: { z: number; data: Uint8Array }[]): Uint8Array {
+  const sorted = [...segments].sort((a, b) => a.z - b.z);
+  const out = new Uint8Array(sorted.reduce((n, x) => n + x.data.length, 0));
+  let o = 0;
+  for (const x of sorted) {
+    out.set(x.data, o);
+    o += x.data.length;
+  }
+  return out;
+}
+
 /**
  * Parses the codestream structure: main header, tile-part headers and their data ranges.
  * @param maxSamples most samples the image may have; a larger SIZ is refused before anything else.
@@ -360,7 +375,10 @@ export function readCodestream(b: Uint8Array, maxSamples: number): Codestream {
   const main: HeaderParts = { poc: [] };
   let pos = readSegments(r, main, true);
   const tileCount = size.tilesX * size.tilesY;
-  const parts = new Map<number, { header: HeaderParts; data: Uint8Array[]; next: number }>();
+  const parts = new Map<number, { header: HeaderParts; data: Uint8Array[]; headers: (Uint8Array | undefined)[]; next: number }>();
+  // PPM: the packed headers of every tile-part in codestream order, each as Nppm then Nppm bytes
+  const ppm = main.packed === undefined ? undefined : joinPacked(main.packed);
+  let ppmPos = 0;
   for (;;) {
     if (pos + 2 <= b.length && ((b[pos] << 8) | b[pos + 1]) === EOC) break;
     if (pos + 12 > b.length) fail('codestream ends inside a tile-part header (truncated?)', pos);
@@ -377,14 +395,26 @@ export function readCodestream(b: Uint8Array, maxSamples: number): Codestream {
     if (end > b.length) fail(`tile-part of ${length} bytes runs past the end of the codestream (truncated?)`, pos);
     let entry = parts.get(tile);
     if (entry === undefined) {
-      entry = { header: { poc: [] }, data: [], next: 0 };
+      entry = { header: { poc: [] }, data: [], headers: [], next: 0 };
       parts.set(tile, entry);
     }
     if (partIndex !== entry.next) fail(`tile ${tile}: tile-part ${partIndex} out of order (expected ${entry.next})`, pos);
     entry.next++;
-    const dataStart = readSegments(r, partIndex === 0 ? entry.header : { poc: entry.header.poc }, false);
+    const header: HeaderParts = partIndex === 0 ? entry.header : { poc: entry.header.poc };
+    const dataStart = readSegments(r, header, false);
     if (dataStart > end) fail('tile-part header runs past the tile-part', pos);
     entry.data.push(b.subarray(dataStart, end));
+    if (ppm !== undefined) {
+      if (header.packed !== undefined) fail('PPT segment in a codestream with PPM', pos);
+      if (ppmPos + 4 > ppm.length) fail(`PPM segments hold no packet headers for the tile-part at byte ${pos}`, pos);
+      const n = ((ppm[ppmPos] << 24) | (ppm[ppmPos + 1] << 16) | (ppm[ppmPos + 2] << 8) | ppm[ppmPos + 3]) >>> 0;
+      if (ppmPos + 4 + n > ppm.length) fail(`PPM record of ${n} bytes runs past the PPM segments`, pos);
+      entry.headers.push(ppm.subarray(ppmPos + 4, ppmPos + 4 + n));
+      ppmPos += 4 + n;
+    } else {
+      // PPT: a tile-part without one (it holds no packets) adds no headers
+      entry.headers.push(header.packed === undefined ? undefined : joinPacked(header.packed));
+    }
     pos = end;
     if (length === 0) break;
   }
@@ -400,6 +430,7 @@ export function readCodestream(b: Uint8Array, maxSamples: number): Codestream {
       roiShift: header.roiShift ?? main.roiShift ?? 0,
       progressions: header.poc.length > 0 ? header.poc : main.poc,
       data: entry.data,
+      ...(entry.headers.some((h) => h !== undefined) ? { headers: entry.headers.map((h) => h ?? new Uint8Array(0)) } : {}),
     });
   }
   return { size, tiles };

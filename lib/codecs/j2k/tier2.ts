@@ -22,7 +22,15 @@ export class PacketStream implements BitSource {
   private byte = 0;
   private bits = 0;
 
-  constructor(parts: readonly Uint8Array[], private readonly tile: number) {
+  /**
+   * @param parts the byte ranges, tile-part by tile-part
+   * @param name what the bytes are, for error messages ("packet data", "packed packet headers")
+   */
+  constructor(
+    parts: readonly Uint8Array[],
+    private readonly tile: number,
+    private readonly name = 'packet data',
+  ) {
     if (parts.length === 1) this.bytes = parts[0];
     else {
       this.bytes = new Uint8Array(parts.reduce((n, p) => n + p.length, 0));
@@ -35,13 +43,13 @@ export class PacketStream implements BitSource {
   }
 
   fail(what: string): never {
-    throw new DecodeError(`JPEG 2000: tile ${this.tile}: ${what} (packet data byte ${this.pos})`);
+    throw new DecodeError(`JPEG 2000: tile ${this.tile}: ${what} (${this.name} byte ${this.pos})`);
   }
 
   /** B.10.1: header bits MSB first; a byte after 0xFF holds 7 bits. */
   bit(): number {
     if (this.bits === 0) {
-      if (this.pos >= this.bytes.length) this.fail('packet header runs past the end of the tile data');
+      if (this.pos >= this.bytes.length) this.fail(`packet header runs past the end of the ${this.name}`);
       const previous = this.byte;
       this.byte = this.bytes[this.pos++];
       this.bits = previous === 0xff ? 7 : 8;
@@ -59,7 +67,7 @@ export class PacketStream implements BitSource {
   /** Ends the header at a byte boundary (a final 0xFF is followed by a stuffed byte). */
   align(): void {
     if (this.byte === 0xff) {
-      if (this.pos >= this.bytes.length) this.fail('packet header runs past the end of the tile data');
+      if (this.pos >= this.bytes.length) this.fail(`packet header runs past the end of the ${this.name}`);
       this.pos++;
     }
     this.bits = 0;
@@ -108,9 +116,12 @@ interface Contribution {
   pieces: { segment: Segment; bytes: number }[];
 }
 
-/** Reads one packet (header and body) of precinct `p` for `layer`. */
-export function readPacket(s: PacketStream, precinct: Precinct, layer: number, cod: CodingStyle): void {
-  if (cod.sop) s.skipMarker(0xff91, 4);
+/**
+ * Reads one packet of `precinct` for `layer`: its header from `s` (the packet data itself, or the
+ * packed headers of PPM/PPT), then its body from `body`.
+ */
+export function readPacket(s: PacketStream, body: PacketStream, precinct: Precinct, layer: number, cod: CodingStyle): void {
+  if (cod.sop) body.skipMarker(0xff91, 4);
   const contributions: Contribution[] = [];
   if (s.bit() === 1) {
     for (const pb of precinct.bands) {
@@ -154,14 +165,14 @@ export function readPacket(s: PacketStream, precinct: Precinct, layer: number, c
   if (cod.eph) s.skipMarker(0xff92, 0);
   for (const c of contributions) {
     for (const piece of c.pieces) {
-      if (s.pos + piece.bytes > s.bytes.length) {
-        s.fail(`code-block data of ${piece.bytes} bytes runs past the end of the tile data`);
+      if (body.pos + piece.bytes > body.bytes.length) {
+        body.fail(`code-block data of ${piece.bytes} bytes runs past the end of the tile data`);
       }
       if (piece.bytes > 0) {
-        piece.segment.chunks.push(s.bytes.subarray(s.pos, s.pos + piece.bytes));
+        piece.segment.chunks.push(body.bytes.subarray(body.pos, body.pos + piece.bytes));
         piece.segment.length += piece.bytes;
       }
-      s.pos += piece.bytes;
+      body.pos += piece.bytes;
     }
   }
 }
