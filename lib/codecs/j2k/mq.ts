@@ -39,9 +39,9 @@ export const CONTEXT_COUNT = 19;
  * after an MPS or an LPS renormalisation (the LPS one with the MPS switch applied).
  */
 const PACKED = 2 * QE.length;
-const QE_OF = new Uint16Array(PACKED);
-const AFTER_MPS = new Uint8Array(PACKED);
-const AFTER_LPS = new Uint8Array(PACKED);
+export const QE_OF = new Uint16Array(PACKED);
+export const AFTER_MPS = new Uint8Array(PACKED);
+export const AFTER_LPS = new Uint8Array(PACKED);
 for (let v = 0; v < PACKED; v++) {
   const s = v >> 1;
   const mps = v & 1;
@@ -57,10 +57,13 @@ export class MqDecoder {
   private data: Uint8Array = new Uint8Array(0);
   private pos = 0;
   private end = 0;
-  private a = 0;
-  /** The code register C as a signed 32-bit integer (its bit pattern is what counts). */
-  private c = 0;
-  private ct = 0;
+  /**
+   * The registers A, C (a signed 32-bit integer: its bit pattern is what counts) and CT. Public
+   * for the hottest pass, which keeps them in locals and calls `byteIn` itself.
+   */
+  a = 0;
+  c = 0;
+  ct = 0;
 
   /** Table D.7: every context starts in state 0 except uniform (46), run-length (3) and zero-coding context 0 (4). */
   resetContexts(): void {
@@ -85,7 +88,7 @@ export class MqDecoder {
   }
 
   /** BYTEIN (C.3.4): a 0xFF followed by a byte above 0x8F is a marker; feed 1 bits from then on. */
-  private byteIn(): void {
+  byteIn(): void {
     const d = this.data;
     const cur = this.pos < this.end ? d[this.pos] : 0xff;
     if (cur === 0xff) {

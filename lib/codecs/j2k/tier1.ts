@@ -14,7 +14,7 @@
  */
 import { DecodeError } from '../../errors.js';
 import * as mqModule from './mq.js';
-import { MqDecoder, RawDecoder } from './mq.js';
+import { AFTER_LPS, AFTER_MPS, MqDecoder, QE_OF, RawDecoder } from './mq.js';
 
 // Module-local copies: the hot loops below read plain constants, not imported bindings.
 const CTX_REFINE: number = mqModule.CTX_REFINE;
@@ -252,20 +252,81 @@ export class CodeBlockDecoder {
   private refinement(plane: number, bypass: boolean): void {
     const { flags, nb, mag, mq, raw, w, h, stride } = this;
     const step = 1 << plane;
+    if (bypass) {
+      for (let y0 = 0; y0 < h; y0 += 4) {
+        const y1 = Math.min(y0 + 4, h);
+        for (let x = 0; x < w; x++) {
+          for (let y = y0, i = (y0 + 1) * stride + x + 1; y < y1; y++, i += stride) {
+            const f = flags[i];
+            if ((f & (SIG | VISITED)) !== SIG) continue;
+            mag[i] += raw.bit() ? step : -step;
+            flags[i] = f | REFINED;
+          }
+        }
+      }
+      return;
+    }
+    // The busiest pass: the MQ decoder's DECODE (C.3.2) is written out here with its registers
+    // in locals; the other passes call mq.decode.
+    const contexts = mq.contexts;
+    let a = mq.a;
+    let c = mq.c;
+    let ct = mq.ct;
     for (let y0 = 0; y0 < h; y0 += 4) {
       const y1 = Math.min(y0 + 4, h);
       for (let x = 0; x < w; x++) {
         for (let y = y0, i = (y0 + 1) * stride + x + 1; y < y1; y++, i += stride) {
           const f = flags[i];
           if ((f & (SIG | VISITED)) !== SIG) continue;
-          const bit = bypass
-            ? raw.bit()
-            : mq.decode(f & REFINED ? CTX_REFINE + 2 : nb[i] !== 0 ? CTX_REFINE + 1 : CTX_REFINE);
+          const cx = f & REFINED ? CTX_REFINE + 2 : nb[i] !== 0 ? CTX_REFINE + 1 : CTX_REFINE;
+          const v = contexts[cx];
+          const qe = QE_OF[v];
+          let bit: number;
+          a -= qe;
+          let renormalise = true;
+          if (c >>> 16 < qe) {
+            if (a < qe) {
+              bit = v & 1;
+              contexts[cx] = AFTER_MPS[v];
+            } else {
+              bit = 1 - (v & 1);
+              contexts[cx] = AFTER_LPS[v];
+            }
+            a = qe;
+          } else {
+            c = (c - (qe << 16)) | 0;
+            if ((a & 0x8000) !== 0) {
+              bit = v & 1;
+              renormalise = false;
+            } else if (a < qe) {
+              bit = 1 - (v & 1);
+              contexts[cx] = AFTER_LPS[v];
+            } else {
+              bit = v & 1;
+              contexts[cx] = AFTER_MPS[v];
+            }
+          }
+          if (renormalise) {
+            do {
+              if (ct === 0) {
+                mq.c = c;
+                mq.byteIn();
+                c = mq.c;
+                ct = mq.ct;
+              }
+              a <<= 1;
+              c <<= 1;
+              ct--;
+            } while ((a & 0x8000) === 0);
+          }
           mag[i] += bit ? step : -step;
           flags[i] = f | REFINED;
         }
       }
     }
+    mq.a = a;
+    mq.c = c;
+    mq.ct = ct;
   }
 
   private cleanup(plane: number): void {
