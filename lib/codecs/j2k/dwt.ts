@@ -12,8 +12,11 @@
  *   X(2n)   = Y(2n)   − ⌊(Y(2n−1) + Y(2n+1) + 2) / 4⌋
  *   X(2n+1) = Y(2n+1) + ⌊(X(2n) + X(2n+2)) / 2⌋
  * in 32-bit integers (the arithmetic the encoders use, so a wrap in either is undone by the other).
- * 9/7 irreversible (F.3.8.2): scaling by K (low) and 1/K (high), then four lifting steps with
- * δ, γ, β, α, in 32-bit floating point.
+ * 9/7 irreversible (F.3.8.2): scaling by K (low) and about 1/K (high), then four lifting steps
+ * with δ, γ, β, α, every operation rounded to 32-bit floating point. The high-band scale is
+ * OpenJPEG's 13318/8192 ÷ 2 (2/K to 13 bits, 3·10⁻⁵ below 1/K): OpenJPEG is the decoder inside
+ * ecCodes and GDAL, whose values we match to the last sample; with the exact 1/K a third of the
+ * samples of a 16-bit irreversible stream come out one unit off.
  */
 import type { TileLayout } from './tile.js';
 
@@ -24,7 +27,8 @@ const BETA = fround(0.052980118);
 const GAMMA = fround(-0.882911075);
 const DELTA = fround(-0.443506852);
 const K = fround(1.230174105);
-const HIGH_SCALE = 1.625732422 / 2;
+/** High-band scale: OpenJPEG's 2/K as 13318/8192, halved for our step-size convention (E.1.1.1). */
+const HIGH_SCALE = 13318 / 8192 / 2;
 
 /** Copies one row of `len` samples out of its L…H halves into natural order. */
 function interleaveRow(src: Int32Array | Float32Array, at: number, len: number, lowCount: number, parity: number, out: Int32Array | Float32Array): void {
