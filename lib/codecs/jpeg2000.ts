@@ -10,6 +10,7 @@
 import factory, { type OpenJpegModule } from '@cornerstonejs/codec-openjpeg/decodewasmjs';
 import { DecodeError, UnsupportedError } from '../errors.js';
 import { decodeJ2k, J2K_MAX_SAMPLES, type J2kLimits, type J2kSamples } from './j2k/index.js';
+import { readImageHeader } from './j2k/markers.js';
 
 /** Decoded samples, row by row, `width × height` of them (either decoder). */
 export type DecodedSamples = J2kSamples;
@@ -31,34 +32,14 @@ function openjpegModule(): Promise<OpenJpegModule> {
   return openjpeg;
 }
 
-/** Reads SIZ (ISO/IEC 15444-1 A.5.1) for the component precision, before decoding. */
-function readSiz(
-  cs: Uint8Array,
-): { width: number; height: number; components: number; bits: number; signed: boolean } | undefined {
-  // SOC (FF4F) then SIZ (FF51): Lsiz(2) Rsiz(2) Xsiz Ysiz XOsiz YOsiz XTsiz YTsiz XTOsiz YTOsiz (4 each) Csiz(2) Ssiz...
-  if (cs.length < 43 || cs[0] !== 0xff || cs[1] !== 0x4f || cs[2] !== 0xff || cs[3] !== 0x51) return undefined;
-  const u32 = (p: number) => ((cs[p] << 24) | (cs[p + 1] << 16) | (cs[p + 2] << 8) | cs[p + 3]) >>> 0;
-  const components = (cs[40] << 8) | cs[41];
-  const ssiz = cs[42];
-  return {
-    width: u32(8) - u32(16),
-    height: u32(12) - u32(20),
-    components,
-    bits: (ssiz & 0x7f) + 1,
-    signed: (ssiz & 0x80) !== 0,
-  };
-}
-
 /**
  * Decodes a raw J2K codestream of one unsigned component into its integer samples.
  * @throws DecodeError when the bytes are not a J2K codestream or a decoder rejects them;
  *   UnsupportedError for several components, signed samples or more than 32 bits per sample.
  */
 export async function decodeJpeg2000(codestream: Uint8Array, limits: J2kLimits = {}): Promise<DecodedSamples> {
-  const siz = readSiz(codestream);
-  if (siz === undefined) {
-    throw new DecodeError(`JPEG 2000: data does not start with a J2K codestream header (SOC, SIZ markers)`, { offset: 0 });
-  }
+  const header = readImageHeader(codestream, limits.maxSamples ?? J2K_MAX_SAMPLES);
+  const siz = { width: header.width, height: header.height, bits: header.size.precision };
   const n = codestream.length;
   if (codestream[n - 2] !== 0xff || codestream[n - 1] !== 0xd9) {
     // OpenJPEG decodes truncated codestreams leniently (missing data becomes zeros): refuse them.
@@ -66,20 +47,13 @@ export async function decodeJpeg2000(codestream: Uint8Array, limits: J2kLimits =
       offset: n,
     });
   }
-  if (siz.components !== 1) {
-    throw new UnsupportedError(`JPEG 2000: ${siz.components} components, GRIB needs 1`, 'JPEG 2000 component count', siz.components);
-  }
-  if (siz.signed) throw new UnsupportedError('JPEG 2000: signed samples', 'JPEG 2000 signed samples', 'signed');
+  if (header.size.signed) throw new UnsupportedError('JPEG 2000: signed samples', 'JPEG 2000 signed samples', 'signed');
   if (siz.bits > JPEG2000_MAX_BITS) {
     throw new UnsupportedError(
       `JPEG 2000: ${siz.bits} bits per sample; at most ${JPEG2000_MAX_BITS} are decoded`,
       'JPEG 2000 bits per sample',
       siz.bits,
     );
-  }
-  const most = limits.maxSamples ?? J2K_MAX_SAMPLES;
-  if (siz.width * siz.height > most) {
-    throw new DecodeError(`JPEG 2000: image of ${siz.width} × ${siz.height} samples, more than the ${most} it may hold here`);
   }
   if (siz.bits > JPEG2000_WASM_MAX_BITS) return decodeJ2k(codestream, limits);
   const oj = await openjpegModule();

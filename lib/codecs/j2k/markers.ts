@@ -4,6 +4,7 @@
  * informational segments (TLM, PLM, PLT, CRG, COM, CAP, CPF) are skipped.
  */
 import { DecodeError, UnsupportedError } from '../../errors.js';
+import { concatBytes } from './bytes.js';
 
 export const SOC = 0xff4f;
 const CAP = 0xff50;
@@ -342,23 +343,28 @@ function mergeQuantization(main: HeaderParts, tile: HeaderParts | undefined): Qu
 
 /** PPM or PPT segment contents in the order of their index (Zppm, Zppt), one after another. */
 function joinPacked(segments: { z: number; data: Uint8Array }[]): Uint8Array {
-  const sorted = [...segments].sort((a, b) => a.z - b.z);
-  const out = new Uint8Array(sorted.reduce((n, x) => n + x.data.length, 0));
-  let o = 0;
-  for (const x of sorted) {
-    out.set(x.data, o);
-    o += x.data.length;
-  }
-  return out;
+  return concatBytes([...segments].sort((a, b) => a.z - b.z).map((x) => x.data));
+}
+
+/** The image header: SIZ, and the component's sample grid. */
+export interface ImageHeader {
+  size: ImageSize;
+  /** Samples across and down (after sub-sampling). */
+  width: number;
+  height: number;
+  /** Byte after the SIZ segment. */
+  end: number;
 }
 
 /**
- * Parses the codestream structure: main header, tile-part headers and their data ranges.
- * @param maxSamples most samples the image may have; a larger SIZ is refused before anything else.
+ * Reads SOC and SIZ (A.4.1, A.5.1) at the start of a codestream.
+ * @param maxSamples most samples the image may have; a larger SIZ is refused here.
+ * @throws DecodeError when the bytes are not a codestream or SIZ is impossible;
+ *   UnsupportedError for more than one component.
  */
-export function readCodestream(b: Uint8Array, maxSamples: number): Codestream {
+export function readImageHeader(b: Uint8Array, maxSamples: number): ImageHeader {
   const r = new Reader(b, 0);
-  if (b.length < 4 || r.u16() !== SOC || r.u16() !== SIZ) {
+  if (b.length < 6 || r.u16() !== SOC || r.u16() !== SIZ) {
     throw new DecodeError('JPEG 2000: data does not start with a J2K codestream header (SOC, SIZ markers)', { offset: 0 });
   }
   const sizLength = r.u16();
@@ -371,7 +377,16 @@ export function readCodestream(b: Uint8Array, maxSamples: number): Codestream {
       offset: 2,
     });
   }
-  r.pos = 4 + sizLength;
+  return { size, width, height, end: 4 + sizLength };
+}
+
+/**
+ * Parses the codestream structure: main header, tile-part headers and their data ranges.
+ * @param maxSamples most samples the image may have; a larger SIZ is refused before anything else.
+ */
+export function readCodestream(b: Uint8Array, maxSamples: number): Codestream {
+  const { size, end } = readImageHeader(b, maxSamples);
+  const r = new Reader(b, end);
   const main: HeaderParts = { poc: [] };
   let pos = readSegments(r, main, true);
   const tileCount = size.tilesX * size.tilesY;

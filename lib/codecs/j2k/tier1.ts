@@ -14,6 +14,7 @@
  */
 import { DecodeError } from '../../errors.js';
 import * as mqModule from './mq.js';
+import { concatBytes } from './bytes.js';
 import { AFTER_LPS, AFTER_MPS, MqDecoder, QE_OF, RawDecoder } from './mq.js';
 
 // Module-local copies: the hot loops below read plain constants, not imported bindings.
@@ -99,17 +100,6 @@ export interface CodeBlockCoding {
   segments: readonly Segment[];
 }
 
-function joinSegment(s: Segment): Uint8Array {
-  if (s.chunks.length === 1) return s.chunks[0];
-  const out = new Uint8Array(s.length);
-  let p = 0;
-  for (const c of s.chunks) {
-    out.set(c, p);
-    p += c.length;
-  }
-  return out;
-}
-
 /**
  * Decodes code-blocks one after another, reusing its arrays. After `decode`, `mag` and `flags`
  * hold the block's coefficients in the padded layout (stride = width + 2, first sample at
@@ -155,7 +145,7 @@ export class CodeBlockDecoder {
     let type = PASS_CLEANUP;
     for (const seg of cb.segments) {
       if (seg.passes === 0) continue;
-      const data = joinSegment(seg);
+      const data = concatBytes(seg.chunks);
       if (seg.raw) this.raw.init(data, 0, data.length);
       else mq.init(data, 0, data.length);
       for (let k = 0; k < seg.passes; k++) {

@@ -4,6 +4,7 @@
  * share of the packet body, split into codeword segments.
  */
 import { DecodeError } from '../../errors.js';
+import { concatBytes } from './bytes.js';
 import type { CodingStyle, ProgressionChange } from './markers.js';
 import type { BitSource } from './tagtree.js';
 import type { CodeBlock, Precinct, TileLayout } from './tile.js';
@@ -31,15 +32,7 @@ export class PacketStream implements BitSource {
     private readonly tile: number,
     private readonly name = 'packet data',
   ) {
-    if (parts.length === 1) this.bytes = parts[0];
-    else {
-      this.bytes = new Uint8Array(parts.reduce((n, p) => n + p.length, 0));
-      let o = 0;
-      for (const p of parts) {
-        this.bytes.set(p, o);
-        o += p.length;
-      }
-    }
+    this.bytes = concatBytes(parts);
   }
 
   fail(what: string): never {

@@ -228,8 +228,8 @@ export function layoutTile(size: ImageSize, tile: TileData): TileLayout {
         const cornerY = (py0 + j) * 2 ** ppy;
         precincts.push({
           bands: pbs,
-          refX: cornerX < rx0 || (i === 0 && rx0 % 2 ** ppx !== 0) ? tx0 : cornerX * scaleX,
-          refY: cornerY < ry0 || (j === 0 && ry0 % 2 ** ppy !== 0) ? ty0 : cornerY * scaleY,
+          refX: cornerX < rx0 ? tx0 : cornerX * scaleX,
+          refY: cornerY < ry0 ? ty0 : cornerY * scaleY,
         });
       }
     }
