@@ -4,7 +4,7 @@
  */
 export type { RasterDtype, RasterProfile, RasterMetadata, EncodeOptions, WrittenRaster } from './geotiff/index.js';
 export { DEFAULT_PROFILE, DEFAULT_DEFLATE_LEVEL, encodeGeoTiff, writeGeoTiff, overviewLevels } from './geotiff/index.js';
-export { rasterLayout, type RasterLayout, type RasterLayoutOptions } from './rasterLayout.js';
+export { rasterLayout, type RasterLayout, type RasterLayoutOptions } from './raster-layout.js';
 export {
   writeQuicklook,
   renderQuicklook,

@@ -14,7 +14,7 @@ import { UnsupportedError } from '../../errors.js';
 import type { ChunkGrid } from './chunks.js';
 import { chunkGrid, encodeChunks, encodeChunksSync } from './chunks.js';
 import { geoKeysFor, modelTags } from './georef.js';
-import { gdalMetadataXml, gdalNodataText } from './gdalMetadata.js';
+import { gdalMetadataXml, gdalNodataText } from './gdal-metadata.js';
 import { asciiBytes, ifdByteLength, writeIfd, type IfdEntry } from './ifd.js';
 import { overviewBands, overviewLevels, type OverviewLevel } from './overviews.js';
 import type { RasterArray, RasterMetadata, RasterProfile, ResolvedProfile } from './profile.js';
@@ -34,7 +34,7 @@ import {
   ReducedResolution,
   SampleFormat,
   Tag,
-} from './tiffTags.js';
+} from './tiff-tags.js';
 
 /** Encoder knobs that are not part of the raster's description. */
 export interface EncodeOptions {

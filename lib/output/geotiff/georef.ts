@@ -6,7 +6,7 @@
  */
 import type { Crs, EarthShape } from '../../grid/types.js';
 import { ParameterError, UnsupportedError } from '../../errors.js';
-import { Epsg, GeoKey, KEY_DIRECTORY_VERSION, ModelType, ProjMethod, RasterType, USER_DEFINED } from './geoKeyTable.js';
+import { Epsg, GeoKey, KEY_DIRECTORY_VERSION, ModelType, ProjMethod, RasterType, USER_DEFINED } from './geo-key-table.js';
 
 export interface GeoKeySet {
   /** GeoKeyDirectoryTag values. */

@@ -4,7 +4,7 @@
  * Values that do not fit in the entry's value field follow the directory, each on a word
  * boundary. All integers are little-endian.
  */
-import { FIELD_TYPE_SIZE, FieldType, type FieldTypeCode } from './tiffTags.js';
+import { FIELD_TYPE_SIZE, FieldType, type FieldTypeCode } from './tiff-tags.js';
 
 export interface IfdEntry {
   readonly tag: number;
